@@ -1,0 +1,12 @@
+#!/usr/bin/env bash
+# npm start: set up everything on a fresh Debian machine, then serve API + web on one port.
+source "$(dirname "$0")/lib.sh"
+ensure_node_modules
+ensure_postgres
+pg_up dev "${AMPWRIGHT_PG_PORT:-54329}"
+log "Running migrations…"
+tsx_server scripts/db.ts migrate
+tsx_server scripts/db.ts seed-if-empty
+ensure_web_build
+export NODE_ENV="${NODE_ENV:-production}"
+exec env TSX_TSCONFIG_PATH=server/tsconfig.json tsx server/index.ts

@@ -1,0 +1,75 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import pg from 'pg';
+import type { DataSource } from 'typeorm';
+import { authRouter, meRouter } from './auth/routes';
+import { sessionMiddleware } from './auth/session';
+import type { Config } from './config';
+import { errorHandler } from './http/error-handler';
+import { requestLog } from './http/request-log';
+import { registerRouter } from './routes/register';
+
+export interface AppDeps {
+  dataSource: DataSource;
+  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY'>;
+  /** the exported web build to serve beside the API, if present */
+  webDir?: string;
+}
+
+export interface App extends Express {
+  /** closes what createApp opened (the session pool); the DataSource belongs to the caller */
+  closeResources(): Promise<void>;
+}
+
+export function createApp({ dataSource, config, webDir }: AppDeps): App {
+  const app = express() as App;
+  app.disable('x-powered-by');
+  if (config.TRUST_PROXY === '1') app.set('trust proxy', 1);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'connect-src': ["'self'"],
+          'font-src': ["'self'", 'data:'],
+        },
+      },
+    }),
+  );
+  app.use(requestLog);
+
+  // health first and without a session: load balancers call it often
+  app.get('/api/health', async (_req, res) => {
+    try {
+      await dataSource.query('SELECT 1');
+      res.json({ ok: true, db: 'up' });
+    } catch {
+      res.status(503).json({ ok: false, db: 'down' });
+    }
+  });
+
+  const sessionPool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 4 });
+  app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET));
+  app.use('/api/auth', authRouter(dataSource, config.SIGN_IN_LIMIT));
+  app.use('/api', meRouter(dataSource));
+  app.use('/api', registerRouter(dataSource));
+  app.use('/api', (_req, res) => {
+    res.status(404).json({ error: { code: 'not_found', message: 'No such API route' } });
+  });
+
+  if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
+    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+    // client-side routes: any other GET without a file extension gets the single-page app
+    app.get(/^\/(?!api\/).*$/, (req, res, next) => {
+      if (path.extname(req.path)) return next();
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile('index.html', { root: webDir });
+    });
+  }
+
+  app.use(errorHandler);
+  app.closeResources = () => sessionPool.end();
+  return app;
+}

@@ -1,0 +1,81 @@
+import bcrypt from 'bcryptjs';
+import { Router, type Request } from 'express';
+import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import type { DataSource } from 'typeorm';
+import { signInBody, type MeResponse } from '../../shared/schemas';
+import { Membership, Organisation, User } from '../entities';
+import { AppError, UnauthorisedError } from '../http/errors';
+import { handle } from '../http/handle';
+import { requireUser } from './session';
+
+// compared against when the e-mail is unknown, so both failures take the same time
+const NO_SUCH_USER_HASH = bcrypt.hashSync('no such user', 10);
+
+async function describeUser(ds: DataSource, userId: string): Promise<MeResponse> {
+  const user = await ds.manager.findOne(User, { where: { id: userId } });
+  if (!user) throw new UnauthorisedError();
+  const memberships = await ds.manager
+    .createQueryBuilder(Membership, 'm')
+    .innerJoin(Organisation, 'o', 'o.id = m.organisation_id')
+    .select(['m.organisation_id AS "organisationId"', 'o.name AS "organisationName"', 'm.role AS role'])
+    .where('m.user_id = :userId', { userId })
+    .orderBy('o.name')
+    .getRawMany<MeResponse['memberships'][number]>();
+  return { user: { id: user.id, email: user.email, name: user.name }, memberships };
+}
+
+function regenerate(req: Request): Promise<void> {
+  return new Promise((resolve, reject) => req.session.regenerate((e) => (e ? reject(e) : resolve())));
+}
+
+export function authRouter(ds: DataSource, signInLimit: number): Router {
+  const router = Router();
+
+  const signInLimiter = rateLimit({
+    windowMs: 15 * 60 * 1000,
+    limit: signInLimit,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) =>
+      `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}`,
+    handler: (_req, res) => {
+      res.status(429).json({
+        error: { code: 'too_many_attempts', message: 'Too many sign-in attempts. Wait 15 minutes and try again.' },
+      });
+    },
+  });
+
+  router.post(
+    '/sign-in',
+    signInLimiter,
+    handle({ body: signInBody }, async ({ body }, req) => {
+      const user = await ds.manager
+        .createQueryBuilder(User, 'u')
+        .addSelect('u.passwordHash')
+        .where('u.email = :email', { email: body.email.toLowerCase() })
+        .getOne();
+      const ok = await bcrypt.compare(body.password, user?.passwordHash ?? NO_SUCH_USER_HASH);
+      if (!user || !ok) throw new AppError(401, 'bad_credentials', 'That e-mail and password do not match');
+      await regenerate(req);
+      req.session.userId = user.id;
+      return describeUser(ds, user.id);
+    }),
+  );
+
+  router.post(
+    '/sign-out',
+    handle({}, async (_input, req, res) => {
+      await new Promise<void>((resolve, reject) => req.session.destroy((e) => (e ? reject(e) : resolve())));
+      res.clearCookie('ampwright.sid');
+      return { ok: true };
+    }),
+  );
+
+  return router;
+}
+
+export function meRouter(ds: DataSource): Router {
+  const router = Router();
+  router.get('/me', requireUser(ds), handle({}, async (_input, req) => describeUser(ds, req.actor.userId)));
+  return router;
+}

@@ -1,0 +1,49 @@
+import connectPgSimple from 'connect-pg-simple';
+import type { RequestHandler } from 'express';
+import session from 'express-session';
+import type pg from 'pg';
+import type { DataSource } from 'typeorm';
+import { UnauthorisedError } from '../http/errors';
+import { loadActor, type Actor } from './access';
+
+declare module 'express-session' {
+  interface SessionData {
+    userId: string;
+  }
+}
+declare module 'express-serve-static-core' {
+  interface Request {
+    actor: Actor;
+  }
+}
+
+const THIRTY_DAYS_MS = 30 * 24 * 3600 * 1000;
+
+/** Sessions live in PostgreSQL (the `session` table from the migrations), so any process can serve. */
+export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler {
+  const PgStore = connectPgSimple(session);
+  return session({
+    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false }),
+    name: 'ampwright.sid',
+    secret,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    // a field device may stay offline for weeks; the session outlives that
+    cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: THIRTY_DAYS_MS },
+  });
+}
+
+/** 401 unless signed in; loads the signed-in user's roles and grants as `req.actor`. */
+export function requireUser(dataSource: DataSource): RequestHandler {
+  return async (req, _res, next) => {
+    try {
+      const userId = req.session?.userId;
+      if (!userId) throw new UnauthorisedError();
+      req.actor = await loadActor(dataSource.manager, userId);
+      next();
+    } catch (error) {
+      next(error);
+    }
+  };
+}

@@ -1,0 +1,71 @@
+import { Column, Entity, Index } from 'typeorm';
+import type {
+  BreakerType,
+  CircuitStatus,
+  ConductorMaterial,
+  ConductorSize,
+  InsulationTempC,
+  LoadKind,
+} from '../../shared/domain';
+import { SyncColumns } from './sync-columns';
+
+@Entity('circuit')
+@Index('ix_circuit_panel_position', ['panelId', 'position'])
+@Index('ix_circuit_building_version', ['buildingId', 'version'])
+export class Circuit extends SyncColumns {
+  @Column('uuid', { name: 'panel_id' })
+  panelId: string;
+
+  /** denormalised so a building's rows can be pulled by version without a join */
+  @Column('uuid', { name: 'building_id' })
+  buildingId: string;
+
+  /** starting position; a 2-pole at n occupies n and n+2 */
+  @Column('integer')
+  position: number;
+
+  @Column('smallint')
+  poles: 1 | 2 | 3;
+
+  @Column('integer', { name: 'rating_a', nullable: true })
+  ratingA: number | null;
+
+  @Column('text', { name: 'breaker_type' })
+  breakerType: BreakerType;
+
+  @Column('text', { default: '' })
+  description: string;
+
+  @Column('text', { name: 'load_kind' })
+  loadKind: LoadKind;
+
+  @Column('real', { name: 'load_va', nullable: true })
+  loadVA: number | null;
+
+  @Column('boolean', { default: false })
+  continuous: boolean;
+
+  @Column('text', { name: 'conductor_size', nullable: true })
+  conductorSize: ConductorSize | null;
+
+  @Column('text', { name: 'conductor_material', nullable: true })
+  conductorMaterial: ConductorMaterial | null;
+
+  @Column('smallint', { name: 'insulation_temp_c', nullable: true })
+  insulationTempC: InsulationTempC | null;
+
+  @Column('real', { name: 'length_ft', nullable: true })
+  lengthFt: number | null;
+
+  @Column('text')
+  status: CircuitStatus;
+
+  @Column('uuid', { name: 'feeds_panel_id', nullable: true })
+  feedsPanelId: string | null;
+
+  @Column('boolean', { name: 'handle_lock', default: false })
+  handleLock: boolean;
+
+  @Column('text', { default: '' })
+  notes: string;
+}

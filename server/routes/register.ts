@@ -1,0 +1,102 @@
+import { Router } from 'express';
+import type { DataSource, EntityManager } from 'typeorm';
+import {
+  buildingCreateBody,
+  buildingPatchBody,
+  circuitCreateBody,
+  circuitPatchBody,
+  idParams,
+  panelCreateBody,
+  panelPatchBody,
+} from '../../shared/schemas';
+import type { Actor } from '../auth/access';
+import { requireUser } from '../auth/session';
+import { handle } from '../http/handle';
+import { serverStamp } from '../services/clock';
+import * as register from '../services/register';
+
+/**
+ * REST routes of the register, kept for scripts and integrations; the app's own writes go through
+ * the sync push, which calls the same service functions.
+ */
+export function registerRouter(ds: DataSource): Router {
+  const router = Router();
+  router.use(requireUser(ds));
+
+  const write = <T>(actor: Actor, fn: (w: register.WriteContext) => Promise<T>) =>
+    ds.transaction((em: EntityManager) => fn({ em, actor, hlc: serverStamp(), device: 'server' }));
+
+  router.get('/buildings', handle({}, async (_i, req) => register.listBuildings(ds.manager, req.actor)));
+  router.get(
+    '/buildings/:id',
+    handle({ params: idParams }, async ({ params }, req) => register.getBuilding(ds.manager, req.actor, params.id)),
+  );
+  router.post(
+    '/buildings',
+    handle(
+      { body: buildingCreateBody },
+      async ({ body }, req) => write(req.actor, (w) => register.createBuilding(w, body)),
+      201,
+    ),
+  );
+  router.patch(
+    '/buildings/:id',
+    handle({ params: idParams, body: buildingPatchBody }, async ({ params, body }, req) =>
+      write(req.actor, (w) => register.patchBuilding(w, params.id, body)),
+    ),
+  );
+  router.delete(
+    '/buildings/:id',
+    handle({ params: idParams }, async ({ params }, req) =>
+      write(req.actor, (w) => register.deleteBuilding(w, params.id)),
+    ),
+  );
+
+  router.post(
+    '/buildings/:id/panels',
+    handle(
+      { params: idParams, body: panelCreateBody },
+      async ({ params, body }, req) => write(req.actor, (w) => register.createPanel(w, params.id, body)),
+      201,
+    ),
+  );
+  router.get(
+    '/panels/:id',
+    handle({ params: idParams }, async ({ params }, req) => register.getPanel(ds.manager, req.actor, params.id)),
+  );
+  router.patch(
+    '/panels/:id',
+    handle({ params: idParams, body: panelPatchBody }, async ({ params, body }, req) =>
+      write(req.actor, (w) => register.patchPanel(w, params.id, body)),
+    ),
+  );
+  router.delete(
+    '/panels/:id',
+    handle({ params: idParams }, async ({ params }, req) =>
+      write(req.actor, (w) => register.deletePanel(w, params.id)),
+    ),
+  );
+
+  router.post(
+    '/panels/:id/circuits',
+    handle(
+      { params: idParams, body: circuitCreateBody },
+      async ({ params, body }, req) => write(req.actor, (w) => register.createCircuit(w, params.id, body)),
+      201,
+    ),
+  );
+  router.patch(
+    '/circuits/:id',
+    handle({ params: idParams, body: circuitPatchBody }, async ({ params, body }, req) =>
+      write(req.actor, (w) => register.patchCircuit(w, params.id, body)),
+    ),
+  );
+  router.delete(
+    '/circuits/:id',
+    handle({ params: idParams }, async ({ params }, req) =>
+      write(req.actor, (w) => register.deleteCircuit(w, params.id)),
+    ),
+  );
+
+  return router;
+}

@@ -1,0 +1,74 @@
+import type { Role } from '../../shared/domain';
+import type {
+  Building as BuildingDto,
+  Circuit as CircuitDto,
+  Panel as PanelDto,
+} from '../../shared/schemas';
+import type { Building, Circuit, Panel } from '../entities';
+import type { SyncColumns } from '../entities/sync-columns';
+
+function syncColumns(row: SyncColumns) {
+  return {
+    id: row.id,
+    updatedAt: row.updatedAt,
+    updatedBy: row.updatedBy,
+    deletedAt: row.deletedAt ? row.deletedAt.toISOString() : null,
+    version: Number(row.version),
+  };
+}
+
+export function buildingDto(b: Building, role: Role, panelCount: number): BuildingDto {
+  return {
+    ...syncColumns(b),
+    organisationId: b.organisationId,
+    name: b.name,
+    address: b.address,
+    notes: b.notes,
+    role,
+    panelCount,
+  };
+}
+
+export function panelDto(p: Panel): PanelDto {
+  return {
+    ...syncColumns(p),
+    buildingId: p.buildingId,
+    tag: p.tag,
+    location: p.location,
+    kind: p.kind,
+    system: p.system,
+    busRatingA: p.busRatingA,
+    mainRatingA: p.mainRatingA,
+    shortCircuitKA: p.shortCircuitKA,
+    spaces: p.spaces,
+    fedFromPanelId: p.fedFromPanelId,
+    fedFromPosition: p.fedFromPosition,
+    maker: p.maker,
+    model: p.model,
+    installedOn: p.installedOn,
+    condition: p.condition,
+  };
+}
+
+export function circuitDto(c: Circuit): CircuitDto {
+  return {
+    ...syncColumns(c),
+    panelId: c.panelId,
+    position: c.position,
+    poles: c.poles,
+    ratingA: c.ratingA,
+    breakerType: c.breakerType,
+    description: c.description,
+    loadKind: c.loadKind,
+    loadVA: c.loadVA,
+    continuous: c.continuous,
+    conductorSize: c.conductorSize,
+    conductorMaterial: c.conductorMaterial,
+    insulationTempC: c.insulationTempC,
+    lengthFt: c.lengthFt,
+    status: c.status,
+    feedsPanelId: c.feedsPanelId,
+    handleLock: c.handleLock,
+    notes: c.notes,
+  };
+}

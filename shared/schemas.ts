@@ -1,0 +1,305 @@
+/**
+ * The API contract: every request and response body as a zod schema. The server parses input
+ * with these; the client takes its types from them (z.infer).
+ */
+import { z } from 'zod';
+import {
+  BREAKER_TYPES,
+  CIRCUIT_STATUSES,
+  CONDUCTOR_SIZES,
+  EQUIPMENT_CONDITIONS,
+  INSULATION_TEMPS_C,
+  LOAD_KINDS,
+  MATERIALS,
+  PANEL_KINDS,
+  ROLES,
+  SYSTEMS,
+} from './domain';
+
+const text = (max: number) => z.string().trim().max(max, `at most ${max} characters`);
+const requiredText = (max: number, what: string) => text(max).min(1, `${what} is required`);
+const amps = z
+  .number({ error: 'must be a number of amperes' })
+  .int('whole amperes')
+  .positive('must be more than 0')
+  .max(6000, 'at most 6000 A');
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date as YYYY-MM-DD');
+const literalUnion = <T extends readonly (string | number)[]>(values: T, what: string) =>
+  z.union(values.map((v) => z.literal(v)) as never as [z.ZodLiteral<T[number]>], {
+    error: `${what}: one of ${values.join(', ')}`,
+  });
+
+export const idSchema = z.uuid('must be a UUID');
+
+/** Columns every synced row carries (SYNC.md). */
+const syncColumns = {
+  id: idSchema,
+  /** hybrid logical clock stamp of the last write */
+  updatedAt: z.string(),
+  updatedBy: z.string().nullable(),
+  /** tombstone: set when deleted, never hard-deleted */
+  deletedAt: z.string().nullable(),
+  /** server version from the building's counter, used by pull cursors */
+  version: z.number(),
+};
+
+// ---------- auth ----------
+
+export const signInBody = z.object({
+  email: z.email('enter an e-mail address').max(200),
+  password: z.string().min(1, 'enter your password').max(200),
+});
+export type SignInBody = z.infer<typeof signInBody>;
+
+export const userSchema = z.object({ id: z.string(), email: z.string(), name: z.string() });
+export type User = z.infer<typeof userSchema>;
+
+export const membershipSchema = z.object({
+  organisationId: z.string(),
+  organisationName: z.string(),
+  role: z.enum(ROLES),
+});
+export type Membership = z.infer<typeof membershipSchema>;
+
+export const meResponse = z.object({ user: userSchema, memberships: z.array(membershipSchema) });
+export type MeResponse = z.infer<typeof meResponse>;
+
+// ---------- buildings ----------
+
+export const buildingFields = z.object({
+  name: requiredText(120, 'a name'),
+  address: text(300),
+  notes: text(2000),
+});
+export const buildingCreateBody = buildingFields.extend({
+  id: idSchema.optional(),
+  address: buildingFields.shape.address.default(''),
+  notes: buildingFields.shape.notes.default(''),
+  organisationId: idSchema.optional(),
+});
+export const buildingPatchBody = buildingFields.partial().strict();
+export type BuildingCreateBody = z.infer<typeof buildingCreateBody>;
+export type BuildingPatchBody = z.infer<typeof buildingPatchBody>;
+
+export const buildingSchema = z.object({
+  ...syncColumns,
+  organisationId: z.string(),
+  name: z.string(),
+  address: z.string(),
+  notes: z.string(),
+  /** the role the signed-in user holds for this building */
+  role: z.enum(ROLES),
+  panelCount: z.number(),
+});
+export type Building = z.infer<typeof buildingSchema>;
+
+// ---------- panels ----------
+
+const panelFieldsBase = z.object({
+  tag: requiredText(20, 'a tag'),
+  location: text(200),
+  kind: z.enum(PANEL_KINDS, { error: `one of ${PANEL_KINDS.join(', ')}` }),
+  system: z.enum(SYSTEMS, { error: 'choose the electrical system' }),
+  busRatingA: amps,
+  /** null = main lugs only */
+  mainRatingA: amps.nullable(),
+  shortCircuitKA: z
+    .number({ error: 'must be a number of kA' })
+    .positive('must be more than 0')
+    .max(200, 'at most 200 kA')
+    .nullable()
+    ,
+  spaces: z
+    .number({ error: 'must be a number' })
+    .int('a whole number')
+    .min(2, 'at least 2')
+    .max(84, 'at most 84'),
+  fedFromPanelId: idSchema.nullable(),
+  fedFromPosition: z.number().int().min(1).max(84).nullable(),
+  maker: text(120),
+  model: text(120),
+  installedOn: isoDate.nullable(),
+  condition: literalUnion(EQUIPMENT_CONDITIONS, 'condition'),
+});
+export const panelFields = panelFieldsBase;
+const panelShape = panelFieldsBase.shape;
+/** Defaults apply when a panel is created, never to a patch (a patch names what changes). */
+export const panelCreateBody = panelFieldsBase.extend({
+  id: idSchema.optional(),
+  location: panelShape.location.default(''),
+  kind: panelShape.kind.default('panelboard'),
+  mainRatingA: panelShape.mainRatingA.default(null),
+  shortCircuitKA: panelShape.shortCircuitKA.default(null),
+  fedFromPanelId: panelShape.fedFromPanelId.default(null),
+  fedFromPosition: panelShape.fedFromPosition.default(null),
+  maker: panelShape.maker.default(''),
+  model: panelShape.model.default(''),
+  installedOn: panelShape.installedOn.default(null),
+  condition: panelShape.condition.default(1),
+});
+export const panelPatchBody = panelFieldsBase.partial().strict();
+export type PanelCreateBody = z.infer<typeof panelCreateBody>;
+export type PanelPatchBody = z.infer<typeof panelPatchBody>;
+
+export const panelSchema = z.object({
+  ...syncColumns,
+  buildingId: z.string(),
+  tag: z.string(),
+  location: z.string(),
+  kind: z.enum(PANEL_KINDS),
+  system: z.enum(SYSTEMS),
+  busRatingA: z.number(),
+  mainRatingA: z.number().nullable(),
+  shortCircuitKA: z.number().nullable(),
+  spaces: z.number(),
+  fedFromPanelId: z.string().nullable(),
+  fedFromPosition: z.number().nullable(),
+  maker: z.string(),
+  model: z.string(),
+  installedOn: z.string().nullable(),
+  condition: z.union([z.literal(1), z.literal(2), z.literal(3)]),
+});
+export type Panel = z.infer<typeof panelSchema>;
+
+// ---------- circuits ----------
+
+const circuitFieldsBase = z.object({
+  position: z
+    .number({ error: 'must be a position number' })
+    .int('a whole position number')
+    .min(1, 'positions start at 1')
+    .max(84, 'at most 84'),
+  poles: literalUnion([1, 2, 3] as const, 'poles'),
+  /** trip rating; null for a space (no breaker) */
+  ratingA: amps.nullable(),
+  breakerType: z.enum(BREAKER_TYPES, { error: 'choose a breaker type' }),
+  /** circuit directory text (NEC 408.4(A)) */
+  description: text(200),
+  loadKind: z.enum(LOAD_KINDS, { error: 'choose a load kind' }),
+  loadVA: z
+    .number({ error: 'must be a number of VA' })
+    .min(0, 'cannot be negative')
+    .max(2_000_000, 'too large')
+    .nullable()
+    ,
+  continuous: z.boolean(),
+  conductorSize: z.enum(CONDUCTOR_SIZES, { error: 'choose a conductor size' }).nullable(),
+  conductorMaterial: z.enum(MATERIALS, { error: 'Cu or Al' }).nullable(),
+  insulationTempC: literalUnion(INSULATION_TEMPS_C, 'insulation rating').nullable(),
+  /** one-way length */
+  lengthFt: z
+    .number({ error: 'must be a length in feet' })
+    .positive('must be more than 0')
+    .max(5000, 'at most 5000 ft')
+    .nullable()
+    ,
+  status: z.enum(CIRCUIT_STATUSES, { error: 'in-use, spare or space' }),
+  feedsPanelId: idSchema.nullable(),
+  handleLock: z.boolean(),
+  notes: text(2000),
+});
+
+/**
+ * Rules between a circuit's fields that no single field's schema can state; applied to a created
+ * circuit and to a stored circuit with a patch merged in. Returns `{ field: message }`.
+ */
+export function circuitRuleErrors(c: {
+  status: string;
+  ratingA: number | null;
+}): Record<string, string> {
+  const fields: Record<string, string> = {};
+  if (c.status !== 'space' && c.ratingA === null) fields.ratingA = 'a breaker needs its trip rating';
+  if (c.status === 'space' && c.ratingA !== null) fields.ratingA = 'a space has no breaker: clear the rating';
+  return fields;
+}
+
+function circuitCrossChecks(c: { status: string; ratingA: number | null }, ctx: z.RefinementCtx) {
+  for (const [field, message] of Object.entries(circuitRuleErrors(c))) {
+    ctx.addIssue({ code: 'custom', path: [field], message });
+  }
+}
+
+export const circuitFields = circuitFieldsBase;
+const circuitShape = circuitFieldsBase.shape;
+/** Defaults apply when a circuit is created, never to a patch. */
+export const circuitCreateBody = circuitFieldsBase
+  .extend({
+    id: idSchema.optional(),
+    poles: circuitShape.poles.default(1),
+    ratingA: circuitShape.ratingA.default(null),
+    breakerType: circuitShape.breakerType.default('standard'),
+    description: circuitShape.description.default(''),
+    loadKind: circuitShape.loadKind.default('other'),
+    loadVA: circuitShape.loadVA.default(null),
+    continuous: circuitShape.continuous.default(false),
+    conductorSize: circuitShape.conductorSize.default(null),
+    conductorMaterial: circuitShape.conductorMaterial.default(null),
+    insulationTempC: circuitShape.insulationTempC.default(null),
+    lengthFt: circuitShape.lengthFt.default(null),
+    status: circuitShape.status.default('in-use'),
+    feedsPanelId: circuitShape.feedsPanelId.default(null),
+    handleLock: circuitShape.handleLock.default(false),
+    notes: circuitShape.notes.default(''),
+  })
+  .superRefine(circuitCrossChecks);
+export const circuitPatchBody = circuitFieldsBase.partial().strict();
+export type CircuitCreateBody = z.infer<typeof circuitCreateBody>;
+export type CircuitPatchBody = z.infer<typeof circuitPatchBody>;
+export type CircuitFields = z.infer<typeof circuitFieldsBase>;
+
+export const circuitSchema = z.object({
+  ...syncColumns,
+  panelId: z.string(),
+  position: z.number(),
+  poles: z.union([z.literal(1), z.literal(2), z.literal(3)]),
+  ratingA: z.number().nullable(),
+  breakerType: z.enum(BREAKER_TYPES),
+  description: z.string(),
+  loadKind: z.enum(LOAD_KINDS),
+  loadVA: z.number().nullable(),
+  continuous: z.boolean(),
+  conductorSize: z.enum(CONDUCTOR_SIZES).nullable(),
+  conductorMaterial: z.enum(MATERIALS).nullable(),
+  insulationTempC: z.union([z.literal(60), z.literal(75), z.literal(90)]).nullable(),
+  lengthFt: z.number().nullable(),
+  status: z.enum(CIRCUIT_STATUSES),
+  feedsPanelId: z.string().nullable(),
+  handleLock: z.boolean(),
+  notes: z.string(),
+});
+export type Circuit = z.infer<typeof circuitSchema>;
+
+// ---------- responses ----------
+
+export const buildingsResponse = z.object({ buildings: z.array(buildingSchema) });
+export const buildingResponse = z.object({ building: buildingSchema, panels: z.array(panelSchema) });
+export const panelResponse = z.object({
+  panel: panelSchema,
+  building: buildingSchema,
+  circuits: z.array(circuitSchema),
+});
+export type BuildingsResponse = z.infer<typeof buildingsResponse>;
+export type BuildingResponse = z.infer<typeof buildingResponse>;
+export type PanelResponse = z.infer<typeof panelResponse>;
+
+export const idParams = z.object({ id: idSchema });
+
+/** `{ error: { code, message, fields? } }` — the one error shape of the API. */
+export const apiErrorBody = z.object({
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    fields: z.record(z.string(), z.string()).optional(),
+  }),
+});
+export type ApiErrorBody = z.infer<typeof apiErrorBody>;
+
+/** Turn zod issues into `{ field: message }`, first message per field. */
+export function fieldErrors(error: z.ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
