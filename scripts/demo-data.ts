@@ -757,8 +757,8 @@ const cottageLC1 = panel(
     // right column
     ckt(2, 2, 30, 'Clothes dryer (2-pole, GFCI)', 'appliance', 5000, 30, { breakerType: 'gfci' }),
     ckt(6, 2, 30, 'Water heater (2-pole)', 'appliance', 4500, 20, { continuous: true }),
-    ckt(10, 2, 30, 'Heat pump condenser HP-1 (2-pole)', 'hvac', 5000, 30, { continuous: true }),
-    ckt(14, 2, 60, 'Air handler AH-1 & strip heat (2-pole)', 'hvac', 9600, 25, { continuous: true }),
+    ckt(10, 2, 30, 'Heat pump condenser HP-1 (2-pole)', 'hvac', 4200, 30, { continuous: true }),
+    ckt(14, 2, 40, 'Air handler AH-1 & strip heat (2-pole)', 'hvac', 7200, 25, { continuous: true }),
     ckt(18, 1, 20, 'Laundry washer receptacle (GFCI)', 'appliance', 1200, 30, { breakerType: 'gfci' }),
     ckt(20, 1, 15, 'Bathroom lights & exhaust fan', 'lighting', 300, 40),
     ckt(22, 1, 20, 'Exterior receptacles front & rear (GFCI)', 'receptacles', 360, 55, {
@@ -794,7 +794,7 @@ const cottageGP = panel(
   },
   [
     ckt(1, 1, 20, 'Garage door opener (GFCI)', 'motor', 600, 20, { breakerType: 'gfci' }),
-    ckt(2, 2, 40, 'EV charging outlet (2-pole, GFCI)', 'other', 7680, 20, {
+    ckt(2, 2, 30, 'EV charging outlet, 24 A charger (2-pole, GFCI)', 'other', 5760, 20, {
       breakerType: 'gfci',
       continuous: true,
     }),
@@ -838,7 +838,9 @@ export const DEMO_BUILDINGS: DemoBuilding[] = [
     key: 'cottage',
     name: 'Wrenfold Cottage',
     address: '6 Thistledown Close, Eastmoor Heights',
-    notes: "Two-bedroom caretaker's house with a detached garage workshop. 120/240 V 200 A service.",
+    notes:
+      "Two-bedroom caretaker's house with a detached garage workshop. 120/240 V 200 A service; " +
+      'the connected load is above 200 A but the NEC 220.82 calculated load is well within it.',
     panels: [cottageLC1, cottageGP],
   },
 ];

@@ -1,0 +1,30 @@
+import { Tabs } from 'expo-router/js-tabs';
+import type { ColorValue } from 'react-native';
+import { Text } from '@/components/text';
+import { colours, fonts } from '@/components/theme';
+
+const icon = (glyph: string) =>
+  function TabIcon({ color }: { color: ColorValue }) {
+    return <Text style={{ color, fontSize: 20 }} accessibilityElementsHidden>{glyph}</Text>;
+  };
+
+export default function TabsLayout() {
+  return (
+    <Tabs
+      screenOptions={{
+        headerStyle: { backgroundColor: colours.ink },
+        headerTintColor: colours.paper,
+        headerTitleStyle: { fontFamily: fonts.textBold },
+        tabBarActiveTintColor: colours.copper,
+        tabBarInactiveTintColor: colours.inkSoft,
+        tabBarLabelStyle: { fontFamily: fonts.textBold, fontSize: 12 },
+        tabBarStyle: { backgroundColor: colours.card, minHeight: 56 },
+      }}
+    >
+      <Tabs.Screen name="index" options={{ title: 'Buildings', tabBarIcon: icon('▦') }} />
+      <Tabs.Screen name="findings" options={{ title: 'Findings', tabBarIcon: icon('◎') }} />
+      <Tabs.Screen name="sync" options={{ title: 'Sync', tabBarIcon: icon('⇅') }} />
+      <Tabs.Screen name="me" options={{ title: 'Me', tabBarIcon: icon('●') }} />
+    </Tabs>
+  );
+}

@@ -1,0 +1,43 @@
+import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
+import { StyleSheet, View } from 'react-native';
+import { FeederTree } from '@/components/feeder-tree';
+import { Screen } from '@/components/screen';
+import { EmptyState, ErrorState, LoadingState, StaleBanner } from '@/components/states';
+import { Text } from '@/components/text';
+import { space } from '@/components/theme';
+import { useBuilding } from '@/hooks/use-buildings';
+
+export default function BuildingScreen() {
+  const { buildingId } = useLocalSearchParams<{ buildingId: string }>();
+  const router = useRouter();
+  const query = useBuilding(buildingId);
+  if (query.data === undefined) {
+    if (query.isError) return <ErrorState error={query.error} onRetry={() => query.refetch()} />;
+    return <LoadingState what="the building" />;
+  }
+  const { building, panels } = query.data;
+  return (
+    <>
+      <Stack.Screen options={{ title: building.name }} />
+      {query.isError && <StaleBanner error={query.error} />}
+      <Screen>
+        <View style={styles.head}>
+          <Text variant="title">{building.name}</Text>
+          {building.address ? <Text tone="soft">{building.address}</Text> : null}
+          {building.notes ? <Text variant="small" tone="faint">{building.notes}</Text> : null}
+        </View>
+        <Text variant="label" tone="soft">PANELS, AS THE POWER FLOWS</Text>
+        {panels.length === 0 ? (
+          <EmptyState title="No panels recorded" hint="Panels of this building will appear here, arranged by which panel feeds which." />
+        ) : (
+          <FeederTree
+            panels={panels}
+            onOpen={(panel) => router.push({ pathname: '/panels/[panelId]', params: { panelId: panel.id } })}
+          />
+        )}
+      </Screen>
+    </>
+  );
+}
+
+const styles = StyleSheet.create({ head: { gap: space.xs } });

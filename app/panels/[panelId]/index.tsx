@@ -1,0 +1,84 @@
+import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
+import { StyleSheet, View } from 'react-native';
+import { Button } from '@/components/button';
+import { PanelSchedule } from '@/components/panel-schedule';
+import { SafetyNote } from '@/components/safety-note';
+import { Screen } from '@/components/screen';
+import { ErrorState, LoadingState, StaleBanner } from '@/components/states';
+import { Text } from '@/components/text';
+import { colours, radii, space } from '@/components/theme';
+import { usePanel } from '@/hooks/use-panel';
+import { canEditSchedules } from '@/hooks/use-session';
+import { SYSTEM_INFO } from '@/shared/domain';
+
+export default function PanelScreen() {
+  const { panelId } = useLocalSearchParams<{ panelId: string }>();
+  const router = useRouter();
+  const query = usePanel(panelId);
+  if (query.data === undefined) {
+    if (query.isError) return <ErrorState error={query.error} onRetry={() => query.refetch()} />;
+    return <LoadingState what="the panel schedule" />;
+  }
+  const { panel, building, circuits } = query.data;
+  const canEdit = canEditSchedules(building.role);
+  const facts = [
+    SYSTEM_INFO[panel.system].label,
+    `${panel.busRatingA} A bus`,
+    panel.mainRatingA ? `${panel.mainRatingA} A main` : 'main lugs only',
+    panel.shortCircuitKA ? `${panel.shortCircuitKA} kA` : null,
+    `${panel.spaces} spaces`,
+  ].filter(Boolean);
+  return (
+    <>
+      <Stack.Screen options={{ title: `${panel.tag} · ${building.name}` }} />
+      {query.isError && <StaleBanner error={query.error} />}
+      <Screen wide>
+        <View style={styles.head}>
+          <View style={styles.tag}>
+            <Text variant="title" tone="paper" style={styles.tagText}>{panel.tag}</Text>
+          </View>
+          <View style={styles.headText}>
+            <Text variant="strong">{panel.location || 'Location not recorded'}</Text>
+            <Text variant="small" tone="soft">{facts.join(' · ')}</Text>
+            {(panel.maker || panel.model) && (
+              <Text variant="small" tone="faint">{[panel.maker, panel.model].filter(Boolean).join(' — ')}</Text>
+            )}
+          </View>
+          {canEdit && (
+            <Button
+              label="Edit panel"
+              tone="secondary"
+              testID="edit-panel"
+              onPress={() => router.push({ pathname: '/panels/[panelId]/edit', params: { panelId } })}
+            />
+          )}
+        </View>
+        {!canEdit && (
+          <View style={styles.readOnly} testID="read-only-note">
+            <Text variant="small">Read only: as {building.role} you can view this schedule but not change it.</Text>
+          </View>
+        )}
+        <PanelSchedule
+          panel={panel}
+          circuits={circuits}
+          canEdit={canEdit}
+          onOpenCircuit={(circuit) =>
+            router.push({ pathname: '/panels/[panelId]/circuits/[circuitId]', params: { panelId, circuitId: circuit.id } })
+          }
+          onAddAt={(position) =>
+            router.push({ pathname: '/panels/[panelId]/new-circuit', params: { panelId, position: String(position) } })
+          }
+        />
+        <SafetyNote />
+      </Screen>
+    </>
+  );
+}
+
+const styles = StyleSheet.create({
+  head: { flexDirection: 'row', alignItems: 'center', gap: space.md, flexWrap: 'wrap' },
+  tag: { backgroundColor: colours.ink, borderRadius: radii.md, paddingHorizontal: space.md, paddingVertical: space.xs },
+  tagText: { fontFamily: 'IBMPlexMono-SemiBold' },
+  headText: { flex: 1, minWidth: 200, gap: 2 },
+  readOnly: { backgroundColor: colours.copperSoft, padding: space.sm, borderRadius: radii.sm },
+});

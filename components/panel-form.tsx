@@ -1,0 +1,143 @@
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
+import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type PanelKind, type PanelSystem } from '@/shared/domain';
+import { fieldErrors, panelCreateBody, type Panel, type PanelPatchBody } from '@/shared/schemas';
+import { Button } from './button';
+import { ChoiceField, TextField } from './fields';
+import { changedFields, numberOrNull, textOf } from './form-values';
+import { Text } from './text';
+import { space } from './theme';
+
+const KIND_LABELS: Record<PanelKind, string> = {
+  panelboard: 'Panelboard',
+  switchboard: 'Switchboard',
+  'load-centre': 'Load centre',
+};
+
+export interface PanelFormProps {
+  panel: Panel;
+  busy: boolean;
+  serverFields?: Record<string, string>;
+  formError?: string;
+  onSubmit: (patch: PanelPatchBody) => void;
+}
+
+export function PanelForm({ panel, busy, serverFields, formError, onSubmit }: PanelFormProps) {
+  const [draft, setDraft] = useState({
+    tag: panel.tag,
+    location: panel.location,
+    kind: panel.kind,
+    system: panel.system,
+    busRatingA: textOf(panel.busRatingA),
+    mainRatingA: textOf(panel.mainRatingA),
+    shortCircuitKA: textOf(panel.shortCircuitKA),
+    spaces: textOf(panel.spaces),
+    maker: panel.maker,
+    model: panel.model,
+    installedOn: panel.installedOn ?? '',
+    condition: panel.condition,
+  });
+  const [localErrors, setLocalErrors] = useState<Record<string, string>>({});
+  const errors = { ...serverFields, ...localErrors };
+  const set = <K extends keyof typeof draft>(key: K) => (value: (typeof draft)[K]) => {
+    setDraft((d) => ({ ...d, [key]: value }));
+    setLocalErrors(({ [key]: _dropped, ...rest }) => rest);
+  };
+
+  const submit = () => {
+    const candidate = {
+      ...draft,
+      busRatingA: numberOrNull(draft.busRatingA),
+      mainRatingA: numberOrNull(draft.mainRatingA),
+      shortCircuitKA: numberOrNull(draft.shortCircuitKA),
+      spaces: numberOrNull(draft.spaces),
+      installedOn: draft.installedOn.trim() || null,
+      fedFromPanelId: panel.fedFromPanelId,
+      fedFromPosition: panel.fedFromPosition,
+    };
+    const parsed = panelCreateBody.safeParse(candidate);
+    if (!parsed.success) {
+      setLocalErrors(fieldErrors(parsed.error));
+      return;
+    }
+    const { id: _id, ...fields } = parsed.data;
+    onSubmit(changedFields(panel, fields));
+  };
+
+  return (
+    <View style={styles.form}>
+      <View style={styles.row}>
+        <View style={styles.cell}>
+          <TextField label="Tag" value={draft.tag} onChangeText={set('tag')} error={errors.tag} mono testID="field-tag" />
+        </View>
+        <View style={styles.cell}>
+          <TextField label="Spaces" value={draft.spaces} onChangeText={set('spaces')} error={errors.spaces} keyboardType="number-pad" mono testID="field-spaces" />
+        </View>
+      </View>
+      <TextField label="Location" value={draft.location} onChangeText={set('location')} error={errors.location} />
+      <ChoiceField
+        label="Kind"
+        choices={PANEL_KINDS.map((value) => ({ value, label: KIND_LABELS[value] }))}
+        value={draft.kind}
+        onChange={set('kind')}
+      />
+      <ChoiceField
+        label="System"
+        choices={SYSTEMS.map((value) => ({ value: value as PanelSystem, label: SYSTEM_INFO[value].label }))}
+        value={draft.system}
+        onChange={set('system')}
+        error={errors.system}
+      />
+      <View style={styles.row}>
+        <View style={styles.cell}>
+          <TextField label="Bus rating (A)" value={draft.busRatingA} onChangeText={set('busRatingA')} error={errors.busRatingA} keyboardType="number-pad" mono testID="field-bus" />
+        </View>
+        <View style={styles.cell}>
+          <TextField
+            label="Main breaker (A)"
+            value={draft.mainRatingA}
+            onChangeText={set('mainRatingA')}
+            error={errors.mainRatingA}
+            hint="Leave blank for main lugs only"
+            keyboardType="number-pad"
+            mono
+          />
+        </View>
+      </View>
+      <View style={styles.row}>
+        <View style={styles.cell}>
+          <TextField label="Short-circuit rating (kA)" value={draft.shortCircuitKA} onChangeText={set('shortCircuitKA')} error={errors.shortCircuitKA} keyboardType="decimal-pad" mono />
+        </View>
+        <View style={styles.cell}>
+          <TextField label="Installed on" value={draft.installedOn} onChangeText={set('installedOn')} error={errors.installedOn} placeholder="YYYY-MM-DD" mono />
+        </View>
+      </View>
+      <View style={styles.row}>
+        <View style={styles.cell}>
+          <TextField label="Maker" value={draft.maker} onChangeText={set('maker')} error={errors.maker} />
+        </View>
+        <View style={styles.cell}>
+          <TextField label="Model" value={draft.model} onChangeText={set('model')} error={errors.model} />
+        </View>
+      </View>
+      <ChoiceField
+        label="Equipment condition (NFPA 70B)"
+        hint="1 like new · 2 deviations or earlier repairs · 3 missed maintenance or urgent findings"
+        choices={[1, 2, 3].map((c) => ({ value: c as EquipmentCondition, label: `Condition ${c}` }))}
+        value={draft.condition}
+        onChange={set('condition')}
+      />
+      {Object.keys(errors).length > 0 && (
+        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
+      )}
+      {formError && <Text tone="danger" accessibilityRole="alert">{formError}</Text>}
+      <Button label="Save panel" onPress={submit} busy={busy} testID="save-panel" />
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  form: { gap: space.lg },
+  row: { flexDirection: 'row', gap: space.md },
+  cell: { flex: 1 },
+});

@@ -1,0 +1,53 @@
+import { ActivityIndicator, StyleSheet, View } from 'react-native';
+import { describeError } from '@/lib/api';
+import { Button } from './button';
+import { Text } from './text';
+import { colours, space } from './theme';
+
+export function LoadingState({ what }: { what: string }) {
+  return (
+    <View style={styles.centre} accessibilityRole="progressbar" accessibilityLabel={`Loading ${what}`}>
+      <ActivityIndicator color={colours.copper} size="large" />
+      <Text tone="soft">Loading {what}…</Text>
+    </View>
+  );
+}
+
+export function ErrorState({ error, onRetry }: { error: unknown; onRetry?: () => void }) {
+  return (
+    <View style={styles.centre} accessibilityRole="alert">
+      <Text variant="heading">Could not load this</Text>
+      <Text tone="soft" style={styles.text}>
+        {describeError(error)}
+      </Text>
+      {onRetry && <Button label="Try again" tone="secondary" onPress={onRetry} />}
+    </View>
+  );
+}
+
+export function EmptyState({ title, hint, children }: { title: string; hint: string; children?: React.ReactNode }) {
+  return (
+    <View style={styles.centre}>
+      <Text variant="heading">{title}</Text>
+      <Text tone="soft" style={styles.text}>
+        {hint}
+      </Text>
+      {children}
+    </View>
+  );
+}
+
+/** A thin strip over data shown from cache after a failed refresh. */
+export function StaleBanner({ error }: { error: unknown }) {
+  return (
+    <View style={styles.banner} accessibilityRole="alert">
+      <Text variant="small">Showing what was loaded earlier. {describeError(error)}</Text>
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  centre: { flex: 1, alignItems: 'center', justifyContent: 'center', padding: space.xl, gap: space.md },
+  text: { textAlign: 'center', maxWidth: 420 },
+  banner: { backgroundColor: colours.warnSoft, padding: space.sm, paddingHorizontal: space.lg },
+});
