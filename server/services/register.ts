@@ -1,6 +1,6 @@
 import { In, IsNull, type EntityManager } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
-import { panelLayout } from '../../shared/calc';
+import { occupiedPositions, panelLayout } from '../../shared/calc';
 import { SYSTEM_INFO, type Role } from '../../shared/domain';
 import {
   circuitRuleErrors,
@@ -113,7 +113,8 @@ export async function getPanel(em: EntityManager, actor: Actor, id: string) {
  * one building, so a pull cursor never passes a row that commits later with a lower version.
  */
 async function bumpVersion(em: EntityManager, buildingId: string): Promise<number> {
-  const rows: { version: string }[] = await em.query(
+  // TypeORM answers an UPDATE … RETURNING on PostgreSQL as [rows, affectedCount]
+  const [rows]: [{ version: string }[], number] = await em.query(
     'UPDATE building SET version = version + 1 WHERE id = $1 RETURNING version',
     [buildingId],
   );
@@ -274,15 +275,23 @@ async function checkCircuit(
   if (candidate.poles === 3 && SYSTEM_INFO[panel.system].phases === 1) {
     fields.poles = 'a 3-pole breaker needs a three-phase panel';
   }
-  const others = await em.find(Circuit, { where: { panelId: panel.id, ...live } });
-  const layout = panelLayout(
-    { system: panel.system, spaces: panel.spaces },
-    [...others.filter((c) => c.id !== candidate.id), candidate],
-  );
+  const layout = panelLayout({ system: panel.system, spaces: panel.spaces }, [candidate]);
   for (const problem of layout.problems) {
-    if (problem.circuitId !== candidate.id) continue;
     const field = problem.code === 'bad-poles' || problem.code === 'same-phase' ? 'poles' : 'position';
     fields[field] ??= problem.message;
+  }
+  const others = await em.find(Circuit, { where: { panelId: panel.id, ...live } });
+  const taken = new Map<number, Circuit>();
+  for (const other of others) {
+    if (other.id === candidate.id) continue;
+    for (const position of occupiedPositions(other.position, other.poles)) taken.set(position, other);
+  }
+  const clash = occupiedPositions(candidate.position, candidate.poles).find((p) => taken.has(p));
+  if (clash !== undefined) {
+    const other = taken.get(clash)!;
+    fields.position ??= `position ${clash} is taken by the breaker at ${other.position}${
+      other.description ? ` (${other.description})` : ''
+    }`;
   }
   if (candidate.feedsPanelId) {
     const fed = await em.findOne(Panel, {

@@ -1,0 +1,50 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start on a throwaway cluster, then every suite.
+# Exits non-zero when any suite fails; ends with one summary line per suite.
+source "$(dirname "$0")/lib.sh"
+ensure_node_modules
+ensure_postgres
+ensure_chromium
+
+TEST_PG_PORT="${AMPWRIGHT_TEST_PG_PORT:-54339}"
+E2E_PORT="${AMPWRIGHT_E2E_PORT:-8090}"
+server_pid=""
+cleanup() {
+  [ -n "$server_pid" ] && kill "$server_pid" 2>/dev/null && wait "$server_pid" 2>/dev/null
+  pg_down test
+}
+trap cleanup EXIT
+
+declare -a summary=()
+failed=0
+suite() { # suite NAME COMMAND...: run one suite, remember how it went
+  local name="$1"; shift
+  log "Suite: $name"
+  if "$@"; then summary+=("passed  $name"); else summary+=("FAILED  $name"); failed=$((failed + 1)); fi
+}
+
+suite "type check (client and server)" bash -c 'tsc --noEmit -p . && tsc --noEmit -p server'
+
+pg_up test "$TEST_PG_PORT" fresh
+export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"
+tsx_server scripts/db.ts migrate >/dev/null
+tsx_server scripts/db.ts seed-if-empty >/dev/null
+
+export TSX_TSCONFIG_PATH=server/tsconfig.json
+suite "unit (shared computations)" node --import tsx --test --test-reporter=dot $(find tests/unit -name "*.test.ts" | sort)
+suite "api (supertest on PostgreSQL)" node --import tsx --test --test-concurrency=1 --test-reporter=spec $(find tests/api -name "*.test.ts" | sort)
+
+ensure_web_build
+# the browser suite starts from the demo scenario, untouched by the API suite
+tsx_server scripts/db.ts reset >/dev/null
+tsx_server scripts/db.ts seed-if-empty >/dev/null
+PORT="$E2E_PORT" HOST=127.0.0.1 SIGN_IN_LIMIT=1000 tsx server/index.ts >"$(pg_datadir test)/e2e-server.log" 2>&1 &
+server_pid=$!
+for _ in $(seq 1 60); do curl -sf "http://127.0.0.1:$E2E_PORT/api/health" >/dev/null && break; sleep 0.5; done
+mkdir -p tests/artifacts
+suite "browser (Playwright + Chromium)" env E2E_BASE_URL="http://127.0.0.1:$E2E_PORT" playwright test
+
+echo
+printf '%s\n' "${summary[@]}"
+echo "$(( ${#summary[@]} - failed )) suites passed, $failed failed"
+[ "$failed" -eq 0 ]
