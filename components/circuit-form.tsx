@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { circuitWarnings, occupiedPositions, phaseOf } from '@/shared/calc';
+import { circuitWarnings, occupiedPositions, phaseOf, type CircuitWarning } from '@/shared/calc';
 import {
   BREAKER_TYPES,
   CONDUCTOR_SIZES,
@@ -289,14 +289,7 @@ export function CircuitForm({ panel, initial, isNew, busy, serverFields, formErr
       )}
       <TextField label="Notes" value={draft.notes} onChangeText={set('notes')} multiline error={errors.notes} />
 
-      {warnings.length > 0 && (
-        <View style={styles.warnings} accessibilityRole="alert" testID="circuit-warnings">
-          <Text variant="label" tone="warn">⚠ {warnings.length} to check</Text>
-          {warnings.map((w) => (
-            <Text key={w.code} variant="small">• {w.message}</Text>
-          ))}
-        </View>
-      )}
+      <CircuitWarningsBox warnings={warnings} />
       {Object.keys(errors).length > 0 && (
         <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
       )}
@@ -307,10 +300,24 @@ export function CircuitForm({ panel, initial, isNew, busy, serverFields, formErr
   );
 }
 
-/** What an owner or inspector sees: the same facts, no controls. */
-export function CircuitDetails({ circuit }: { circuit: Circuit }) {
+function CircuitWarningsBox({ warnings }: { warnings: CircuitWarning[] }) {
+  if (warnings.length === 0) return null;
   return (
-    <View>
+    <View style={styles.warnings} accessibilityRole="alert" testID="circuit-warnings">
+      <Text variant="label" tone="warn">⚠ {warnings.length} to check</Text>
+      {warnings.map((w) => (
+        <Text key={w.code} variant="small">• {w.message}</Text>
+      ))}
+    </View>
+  );
+}
+
+/** What an owner or inspector sees: the same facts and checks, no controls. */
+export function CircuitDetails({ circuit, panel }: { circuit: Circuit; panel: Panel }) {
+  return (
+    <View style={styles.form}>
+      <CircuitWarningsBox warnings={circuitWarnings(circuit, { system: panel.system })} />
+      <View>
       <ReadOnlyField label="Directory" value={directoryText(circuit)} />
       <ReadOnlyField label="Position" value={`${circuit.position}${circuit.poles > 1 ? ` (${circuit.poles} poles)` : ''}`} />
       <ReadOnlyField label="Breaker" value={circuit.status === 'space' ? 'none (space)' : `${breakerLabel(circuit)} ${BREAKER_TYPE_LABELS[circuit.breakerType]}`} />
@@ -319,6 +326,7 @@ export function CircuitDetails({ circuit }: { circuit: Circuit }) {
       <ReadOnlyField label="Conductor" value={[conductorLabel(circuit), circuit.insulationTempC ? `${circuit.insulationTempC} °C` : null, circuit.lengthFt ? `${circuit.lengthFt} ft one way` : null].filter(Boolean).join(' · ')} />
       <ReadOnlyField label="Handle lock" value={circuit.handleLock ? 'yes' : 'no'} />
       <ReadOnlyField label="Notes" value={circuit.notes} />
+      </View>
     </View>
   );
 }

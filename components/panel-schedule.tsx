@@ -10,6 +10,8 @@ import { colours, MIN_TOUCH, radii, space, WIDE_MIN_WIDTH } from './theme';
 interface ScheduleProps {
   panel: Panel;
   circuits: Circuit[];
+  /** warnings by circuit id, from {@link warningsByCircuit} */
+  warnings: Map<string, CircuitWarning[]>;
   canEdit: boolean;
   onOpenCircuit: (circuit: Circuit) => void;
   onAddAt: (position: number) => void;
@@ -27,19 +29,22 @@ interface Position {
 const phaseTint: Record<Phase, string> = { A: colours.phaseA, B: colours.phaseB, C: colours.phaseC };
 const ROW_HEIGHT = 64;
 
-function usePositions(panel: Panel, circuits: Circuit[]) {
+/** Warnings worth an electrician's attention (severity 'warning'), by circuit id. */
+export function warningsByCircuit(panel: Panel, circuits: Circuit[]): Map<string, CircuitWarning[]> {
+  return new Map(
+    circuits.map((c) => [c.id, circuitWarnings(c, { system: panel.system }).filter((w) => w.severity === 'warning')]),
+  );
+}
+
+function usePositions(panel: Panel, circuits: Circuit[]): Position[] {
   return useMemo(() => {
     const byId = new Map(circuits.map((c) => [c.id, c]));
     const { slots } = panelLayout(panel, circuits);
-    const positions: Position[] = slots.map((slot) => {
+    return slots.map((slot) => {
       const circuit = slot.circuitId ? byId.get(slot.circuitId) ?? null : null;
       const starts = circuit && circuit.position === slot.position ? circuit : null;
       return { position: slot.position, phase: slot.phase, starts, continues: starts ? null : circuit };
     });
-    const warnings = new Map<string, CircuitWarning[]>(
-      circuits.map((c) => [c.id, circuitWarnings(c, { system: panel.system })]),
-    );
-    return { positions, warnings };
   }, [panel, circuits]);
 }
 
@@ -50,15 +55,15 @@ function usePositions(panel: Panel, circuits: Circuit[]) {
  */
 export function PanelSchedule(props: ScheduleProps) {
   const { width } = useWindowDimensions();
-  const { positions, warnings } = usePositions(props.panel, props.circuits);
+  const positions = usePositions(props.panel, props.circuits);
   return width >= WIDE_MIN_WIDTH ? (
-    <WideSchedule {...props} positions={positions} warnings={warnings} />
+    <WideSchedule {...props} positions={positions} />
   ) : (
-    <PhoneSchedule {...props} positions={positions} warnings={warnings} />
+    <PhoneSchedule {...props} positions={positions} />
   );
 }
 
-type Laid = ScheduleProps & { positions: Position[]; warnings: Map<string, CircuitWarning[]> };
+type Laid = ScheduleProps & { positions: Position[] };
 
 function PhaseBadge({ phase }: { phase: Phase }) {
   return (
@@ -68,17 +73,29 @@ function PhaseBadge({ phase }: { phase: Phase }) {
   );
 }
 
-function WarningMark({ warnings }: { warnings: CircuitWarning[] | undefined }) {
-  const count = warnings?.filter((w) => w.severity === 'warning').length ?? 0;
-  if (count === 0) return null;
+/** Icon and words, never colour alone: the first warning, and how many more. */
+function WarningLine({ warnings, align }: { warnings: CircuitWarning[] | undefined; align: 'left' | 'right' }) {
+  if (!warnings?.length) return null;
+  const more = warnings.length > 1 ? ` (+${warnings.length - 1} more)` : '';
   return (
-    <View style={styles.warning} accessibilityLabel={`${count} warning${count > 1 ? 's' : ''}`}>
-      <Text variant="label" tone="warn">⚠ {count}</Text>
+    <View style={[styles.warning, align === 'right' && styles.selfEnd]} testID="circuit-warning">
+      <Text variant="small" numberOfLines={2} style={align === 'right' && styles.textRight}>
+        ⚠ {warnings[0].message}
+        {more}
+      </Text>
     </View>
   );
 }
 
-function CircuitSummary({ circuit, align = 'left' }: { circuit: Circuit; align?: 'left' | 'right' }) {
+function CircuitSummary({
+  circuit,
+  warnings,
+  align = 'left',
+}: {
+  circuit: Circuit;
+  warnings: CircuitWarning[] | undefined;
+  align?: 'left' | 'right';
+}) {
   const meta = [conductorLabel(circuit), vaLabel(circuit.loadVA)].filter(Boolean).join(' · ');
   const muted = circuit.status !== 'in-use';
   return (
@@ -91,13 +108,14 @@ function CircuitSummary({ circuit, align = 'left' }: { circuit: Circuit; align?:
           {meta}
         </Text>
       ) : null}
+      <WarningLine warnings={warnings} align={align} />
     </View>
   );
 }
 
 function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }: Laid) {
   return (
-    <View style={styles.phoneList} accessibilityRole="list">
+    <View style={styles.phoneList} accessibilityRole="list" testID="schedule-phone">
       {positions.map(({ position, phase, starts, continues }) => {
         const circuit = starts ?? continues;
         const onPress = circuit ? () => onOpenCircuit(circuit) : canEdit ? () => onAddAt(position) : undefined;
@@ -126,8 +144,7 @@ function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }:
                 <View style={styles.breaker}>
                   <Text variant="reading">{breakerLabel(starts)}</Text>
                 </View>
-                <CircuitSummary circuit={starts} />
-                <WarningMark warnings={warnings.get(starts.id)} />
+                <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} />
               </>
             ) : continues ? (
               <Text variant="small" tone="soft" style={styles.flex} numberOfLines={1}>
@@ -186,13 +203,12 @@ function WideColumn({ side, positions, warnings, canEdit, onOpenCircuit, onAddAt
               <Text variant="reading">{starts ? breakerLabel(starts) : ''}</Text>
             </View>
             {starts ? (
-              <CircuitSummary circuit={starts} align={right ? 'left' : 'right'} />
+              <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} align={right ? 'left' : 'right'} />
             ) : (
               <Text variant="small" tone="faint" style={[styles.flex, !right && styles.textRight]}>
                 Not recorded
               </Text>
             )}
-            {starts && <WarningMark warnings={warnings.get(starts.id)} />}
           </Pressable>
         );
       })}
@@ -203,7 +219,7 @@ function WideColumn({ side, positions, warnings, canEdit, onOpenCircuit, onAddAt
 function WideSchedule(props: Laid) {
   const rows = props.positions.filter((p) => p.position % 2 === 1);
   return (
-    <View style={styles.wide}>
+    <View style={styles.wide} testID="schedule-wide">
       <WideColumn {...props} side="odd" />
       <View style={styles.spine} accessibilityLabel="bus phases">
         {rows.map((p) => (
@@ -255,12 +271,14 @@ const styles = StyleSheet.create({
   alignRight: { alignItems: 'flex-end' },
   textRight: { textAlign: 'right' },
   warning: {
+    marginTop: 2,
     paddingHorizontal: space.xs,
     borderRadius: radii.sm,
     backgroundColor: colours.warnSoft,
-    borderWidth: 1,
-    borderColor: colours.warn,
+    borderLeftWidth: 3,
+    borderLeftColor: colours.warn,
   },
+  selfEnd: { alignSelf: 'flex-end' },
   wide: {
     flexDirection: 'row',
     borderWidth: 2,

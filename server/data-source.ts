@@ -2,13 +2,14 @@ import { DataSource } from 'typeorm';
 import { readConfig } from './config';
 import { entities } from './entities';
 import { Register1764641000000 } from './migrations/1764641000000-register';
+import { Sync1764900000000 } from './migrations/1764900000000-sync';
 
 export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
   return new DataSource({
     type: 'postgres',
     url,
     entities,
-    migrations: [Register1764641000000],
+    migrations: [Register1764641000000, Sync1764900000000],
     synchronize: false,
     logging: false,
     extra: { max: 10 },

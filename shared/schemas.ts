@@ -32,7 +32,7 @@ const literalUnion = <T extends readonly (string | number)[]>(values: T, what: s
 export const idSchema = z.uuid('must be a UUID');
 
 /** Columns every synced row carries (SYNC.md). */
-const syncColumns = {
+export const syncColumns = {
   id: idSchema,
   /** hybrid logical clock stamp of the last write */
   updatedAt: z.string(),

@@ -20,8 +20,8 @@ test.describe('electrician', () => {
     await openPanel(page, 'Brackenfold Family Clinic', 'LA');
     await page.getByTestId('position-1').click();
     const description = page.getByTestId('field-description');
-    await expect(description).toHaveValue('Exam 1 & 2 receptacles');
-    const changed = 'Exam 1 & 2 receptacles, north wall';
+    await expect(description).toHaveValue(/^Exam 1 & 2 receptacles/);
+    const changed = `Exam 1 & 2 receptacles, north wall ${Date.now() % 100000}`;
     await description.fill(changed);
     await page.getByTestId('save-circuit').click();
     await expect(page.getByTestId('position-1')).toContainText(changed);
@@ -46,7 +46,9 @@ test.describe('electrician', () => {
     await signIn(page, 'electrician');
     await openPanel(page, 'Copperwick Lofts', 'HP');
     await page.screenshot({ path: `${ARTIFACTS}/schedule-phone.png`, fullPage: true });
+    await expect(page.getByTestId('schedule-phone')).toBeVisible();
     await page.setViewportSize({ width: 1280, height: 800 });
+    await expect(page.getByTestId('schedule-wide')).toBeVisible();
     // on a wide screen the odd and even columns stand side by side
     const one = await page.getByTestId('position-1').boundingBox();
     const two = await page.getByTestId('position-2').boundingBox();
@@ -59,6 +61,7 @@ test.describe('electrician', () => {
     await page.setViewportSize({ width: 1280, height: 800 });
     await signIn(page, 'electrician');
     await openPanel(page, 'Brackenfold Family Clinic', 'LA');
+    await expect(page.getByTestId('schedule-wide')).toBeVisible();
     // LA position 10 is a 2-pole breaker (10 and 12): one cell twice the height of a 1-pole one
     const twoPole = await page.getByTestId('position-10').boundingBox();
     const onePole = await page.getByTestId('position-2').boundingBox();

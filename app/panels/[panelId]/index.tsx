@@ -1,7 +1,10 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
+import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
-import { PanelSchedule } from '@/components/panel-schedule';
+import { PanelLoadSummary } from '@/components/panel-load';
+import { PanelProblems } from '@/components/panel-problems';
+import { PanelSchedule, warningsByCircuit } from '@/components/panel-schedule';
 import { SafetyNote } from '@/components/safety-note';
 import { Screen } from '@/components/screen';
 import { ErrorState, LoadingState, StaleBanner } from '@/components/states';
@@ -15,12 +18,21 @@ export default function PanelScreen() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();
   const router = useRouter();
   const query = usePanel(panelId);
+  const warnings = useMemo(
+    () => (query.data ? warningsByCircuit(query.data.panel, query.data.circuits) : new Map()),
+    [query.data],
+  );
   if (query.data === undefined) {
     if (query.isError) return <ErrorState error={query.error} onRetry={() => query.refetch()} />;
     return <LoadingState what="the panel schedule" />;
   }
   const { panel, building, circuits } = query.data;
   const canEdit = canEditSchedules(building.role);
+  const openCircuit = (circuit: { id: string }) =>
+    router.push({ pathname: '/panels/[panelId]/circuits/[circuitId]', params: { panelId, circuitId: circuit.id } });
+  const problems = circuits
+    .map((circuit) => ({ circuit, warnings: warnings.get(circuit.id) ?? [] }))
+    .filter((p) => p.warnings.length > 0);
   const facts = [
     SYSTEM_INFO[panel.system].label,
     `${panel.busRatingA} A bus`,
@@ -58,13 +70,20 @@ export default function PanelScreen() {
             <Text variant="small">Read only: as {building.role} you can view this schedule but not change it.</Text>
           </View>
         )}
+        <View style={styles.overview}>
+          <View style={styles.overviewItem}>
+            <PanelLoadSummary panel={panel} circuits={circuits} />
+          </View>
+          <View style={styles.overviewItem}>
+            <PanelProblems problems={problems} onOpen={openCircuit} />
+          </View>
+        </View>
         <PanelSchedule
           panel={panel}
           circuits={circuits}
+          warnings={warnings}
           canEdit={canEdit}
-          onOpenCircuit={(circuit) =>
-            router.push({ pathname: '/panels/[panelId]/circuits/[circuitId]', params: { panelId, circuitId: circuit.id } })
-          }
+          onOpenCircuit={openCircuit}
           onAddAt={(position) =>
             router.push({ pathname: '/panels/[panelId]/new-circuit', params: { panelId, position: String(position) } })
           }
@@ -80,5 +99,8 @@ const styles = StyleSheet.create({
   tag: { backgroundColor: colours.ink, borderRadius: radii.md, paddingHorizontal: space.md, paddingVertical: space.xs },
   tagText: { fontFamily: 'IBMPlexMono-SemiBold' },
   headText: { flex: 1, minWidth: 200, gap: 2 },
+  // side by side when there is room, stacked on a phone
+  overview: { flexDirection: 'row', flexWrap: 'wrap', gap: space.lg },
+  overviewItem: { flexGrow: 1, flexBasis: 340 },
   readOnly: { backgroundColor: colours.copperSoft, padding: space.sm, borderRadius: radii.sm },
 });

@@ -26,7 +26,7 @@ export default function CircuitScreen() {
     return (
       <Screen>
         <Stack.Screen options={{ title }} />
-        <CircuitDetails circuit={circuit} />
+        <CircuitDetails circuit={circuit} panel={panel} />
       </Screen>
     );
   }

@@ -1,0 +1,21 @@
+import { Column, CreateDateColumn, Entity, Index, PrimaryColumn } from 'typeorm';
+
+/** A pushed mutation id with the answer it got, so a replay is answered `duplicate`. */
+@Entity('processed_mutation')
+@Index('ix_processed_mutation_created', ['createdAt'])
+export class ProcessedMutation {
+  @PrimaryColumn('text', { name: 'device_id', primaryKeyConstraintName: 'pk_processed_mutation' })
+  deviceId: string;
+
+  @PrimaryColumn('uuid', { name: 'mutation_id', primaryKeyConstraintName: 'pk_processed_mutation' })
+  mutationId: string;
+
+  @Column('uuid', { name: 'user_id' })
+  userId: string;
+
+  @Column('jsonb', { nullable: true })
+  result: unknown;
+
+  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
+  createdAt: Date;
+}

@@ -1,0 +1,42 @@
+import { expect, test } from '@playwright/test';
+import { ARTIFACTS, openPanel, signIn } from './helpers';
+
+test('a conductor too small for its breaker is flagged in words, and the flag clears after the fix', async ({ page }) => {
+  await signIn(page, 'electrician');
+  await openPanel(page, 'Brackenfold Family Clinic', 'LB');
+  // the demo's break-room microwave: a 20 A breaker on 14 AWG copper (NEC 240.4(D) allows 15 A)
+  const row = page.getByTestId('position-13');
+  await expect(row.getByTestId('circuit-warning')).toContainText('NEC 240.4(D) allows at most a 15 A breaker on 14 AWG copper');
+  await expect(page.getByTestId('panel-problems')).toContainText('Break room microwave');
+  await page.screenshot({ path: `${ARTIFACTS}/warning-phone.png` });
+
+  await row.click();
+  await expect(page.getByTestId('circuit-warnings')).toContainText('240.4(D)');
+  await page.getByRole('radio', { name: 'Conductor size: 12 AWG' }).click();
+  // the form re-checks as the electrician types
+  await expect(page.getByTestId('circuit-warnings')).toHaveCount(0);
+  await page.getByTestId('save-circuit').click();
+
+  await expect(page.getByTestId('position-13')).toContainText('12 AWG Cu');
+  await expect(page.getByTestId('position-13').getByTestId('circuit-warning')).toHaveCount(0);
+  await expect(page.getByTestId('panel-problems')).not.toContainText('Break room microwave');
+});
+
+test('the schedule header shows phase loading, with the numbers behind a tap', async ({ page }) => {
+  await signIn(page, 'inspector');
+  await openPanel(page, 'Brackenfold Family Clinic', 'LA');
+  const load = page.getByTestId('panel-load');
+  await expect(load.getByLabel(/^Phase A: \d+ amperes$/)).toBeVisible();
+  await expect(load.getByLabel(/^Phase C: \d+ amperes$/)).toBeVisible();
+  await expect(load).toContainText('Imbalance');
+  await expect(page.getByTestId('panel-load-details')).toHaveCount(0);
+  await load.click();
+  await expect(page.getByTestId('panel-load-details')).toContainText('Phase B:');
+  // the demo puts a person's name and a long run with a large voltage drop on this panel
+  const problems = page.getByTestId('panel-problems');
+  await expect(problems).toContainText(/⚠ \d+ warnings?/);
+  await expect(problems).toContainText("Dana's office");
+  await expect(problems).toContainText('Monument sign');
+  await problems.getByRole('link', { name: /^Position 31:/ }).click();
+  await expect(page.getByTestId('circuit-warnings')).toContainText('%');
+});
