@@ -1,13 +1,22 @@
-import { QueryClientProvider } from '@tanstack/react-query';
+import { dehydrate, QueryClientProvider, type QueryClient } from '@tanstack/react-query';
+import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client';
 import { useFonts } from 'expo-font';
 import { SplashScreen, Stack } from 'expo-router';
 import { StatusBar } from 'expo-status-bar';
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { ErrorState, LoadingState } from '@/components/states';
+import { SyncStatus } from '@/components/sync-status';
 import { colours, fonts } from '@/components/theme';
-import { useSession } from '@/hooks/use-session';
+import { AccountContext, useSession, type Account } from '@/hooks/use-session';
+import { cacheKey, getActiveUser, makePersister, setActiveUser, setCacheFlush, wipeUserCache } from '@/lib/account';
+import { kv } from '@/lib/storage';
+import { loadDevice } from '@/lib/device';
+import { registerOfflineShell } from '@/lib/offline-shell';
+import { installOnlineDetection } from '@/lib/online';
 import { makeQueryClient } from '@/lib/query-client';
+import { configureSync, resumeOutbox } from '@/lib/sync';
+import { SCHEMA_VERSION } from '@/shared/sync';
 
 SplashScreen.preventAutoHideAsync().catch(() => undefined);
 
@@ -18,18 +27,107 @@ export default function RootLayout() {
     [fonts.mono]: require('@/fonts/IBMPlexMono_400Regular.ttf'),
     [fonts.monoBold]: require('@/fonts/IBMPlexMono_600SemiBold.ttf'),
   });
-  const [queryClient] = useState(makeQueryClient);
-  const ready = fontsLoaded || !!fontError;
+  // undefined while the device's identity and last user are read from storage
+  const [userId, setUserId] = useState<string | null | undefined>(undefined);
   useEffect(() => {
-    if (ready) SplashScreen.hideAsync().catch(() => undefined);
+    installOnlineDetection();
+    Promise.all([loadDevice(), getActiveUser()]).then(([, id]) => setUserId(id));
+  }, []);
+  const ready = (fontsLoaded || !!fontError) && userId !== undefined;
+  useEffect(() => {
+    if (!ready) return;
+    SplashScreen.hideAsync().catch(() => undefined);
+    registerOfflineShell();
   }, [ready]);
+
+  const account = useMemo<Account>(
+    () => ({
+      userId: userId ?? null,
+      switchTo: (id) => {
+        void setActiveUser(id);
+        setUserId(id);
+      },
+      forget: async () => {
+        if (userId) await wipeUserCache(userId);
+        await setActiveUser(null);
+        setUserId(null);
+      },
+    }),
+    [userId],
+  );
+
   if (!ready) return null;
   return (
-    <QueryClientProvider client={queryClient}>
+    <AccountContext.Provider value={account}>
       <SafeAreaProvider>
         <StatusBar style="light" />
-        <RootStack />
+        {userId ? <UserCache key={userId} userId={userId} /> : <SignedOutCache />}
       </SafeAreaProvider>
+    </AccountContext.Provider>
+  );
+}
+
+const dehydrateOptions = {
+  // persist by allow-list: the session and the building copy; mutations still waiting
+  shouldDehydrateQuery: (q: { queryKey: readonly unknown[]; state: { status: string } }) =>
+    q.state.status === 'success' && (q.queryKey[0] === 'me' || q.queryKey[0] === 'replica'),
+  shouldDehydrateMutation: (m: { state: { status: string } }) => m.state.status === 'pending',
+};
+
+/** One signed-in user's persisted cache and outbox. */
+function UserCache({ userId }: { userId: string }) {
+  const [{ client, persister }] = useState(() => {
+    const queryClient = makeQueryClient();
+    // before the restore: restored mutations find their function and scope in these defaults
+    configureSync(queryClient, userId);
+    return { client: queryClient, persister: makePersister(userId) };
+  });
+  useImmediateSave(client, userId);
+  return (
+    <PersistQueryClientProvider
+      client={client}
+      persistOptions={{ persister, maxAge: Infinity, buster: String(SCHEMA_VERSION), dehydrateOptions }}
+      onSuccess={() => resumeOutbox(client)}
+    >
+      <RootStack />
+    </PersistQueryClientProvider>
+  );
+}
+
+/**
+ * The persister's throttled save may not have run when a change was just queued, the tab is
+ * closed or the app goes to the background: write the same snapshot straight away.
+ */
+function useImmediateSave(queryClient: QueryClient, userId: string) {
+  useEffect(() => {
+    const flush = () =>
+      kv.setItem(
+        cacheKey(userId),
+        JSON.stringify({
+          buster: String(SCHEMA_VERSION),
+          timestamp: Date.now(),
+          clientState: dehydrate(queryClient, dehydrateOptions),
+        }),
+      );
+    setCacheFlush(flush);
+    if (typeof document === 'undefined' || typeof window.addEventListener !== 'function') return () => setCacheFlush(null);
+    const save = () => void flush();
+    const hidden = () => document.visibilityState === 'hidden' && save();
+    window.addEventListener('pagehide', save);
+    document.addEventListener('visibilitychange', hidden);
+    return () => {
+      window.removeEventListener('pagehide', save);
+      document.removeEventListener('visibilitychange', hidden);
+      setCacheFlush(null);
+    };
+  }, [queryClient, userId]);
+}
+
+function SignedOutCache() {
+  const [client] = useState(makeQueryClient);
+  return (
+    <QueryClientProvider client={client}>
+      <RootStack />
     </QueryClientProvider>
   );
 }
@@ -48,6 +146,7 @@ function RootStack() {
         headerTintColor: colours.paper,
         headerTitleStyle: { fontFamily: fonts.textBold },
         contentStyle: { backgroundColor: colours.paper },
+        headerRight: signedIn ? () => <SyncStatus /> : undefined,
       }}
     >
       <Stack.Protected guard={signedIn}>

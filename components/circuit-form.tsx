@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { circuitWarnings, occupiedPositions, phaseOf, type CircuitWarning } from '@/shared/calc';
+import { circuitWarnings, occupiedPositions, panelLayout, phaseOf, positionClash, type CircuitWarning } from '@/shared/calc';
 import {
   BREAKER_TYPES,
   CONDUCTOR_SIZES,
@@ -124,23 +124,34 @@ function fromDraft(d: Draft, base: CircuitFields): CircuitFields {
   };
 }
 
+/** Where the breaker would sit, checked against the panel as the device knows it. */
+function layoutProblems(panel: Panel, others: Circuit[], c: { id: string; position: number; poles: number }) {
+  const fields: Record<string, string> = {};
+  const { problems } = panelLayout(panel, [c]);
+  for (const p of problems) fields[p.code === 'bad-poles' || p.code === 'same-phase' ? 'poles' : 'position'] ??= p.message;
+  const clash = positionClash(c, others);
+  if (clash) {
+    const what = clash.circuit.description ? ` (${clash.circuit.description})` : '';
+    fields.position ??= `position ${clash.position} is taken by the breaker at ${clash.circuit.position}${what}`;
+  }
+  return fields;
+}
+
 export interface CircuitFormProps {
   panel: Panel;
-  initial: CircuitFields;
+  /** the panel's circuits, to refuse a position that is taken before the change is queued */
+  others: Circuit[];
+  initial: CircuitFields & { id?: string };
   /** creating a new circuit rather than editing one */
   isNew: boolean;
-  busy: boolean;
-  serverFields?: Record<string, string>;
-  formError?: string;
   /** gets the whole circuit for a new one, only the changed fields for an edit */
   onSubmit: (fields: Partial<CircuitFields>) => void;
   onDelete?: () => void;
 }
 
-export function CircuitForm({ panel, initial, isNew, busy, serverFields, formError, onSubmit, onDelete }: CircuitFormProps) {
+export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete }: CircuitFormProps) {
   const [draft, setDraft] = useState<Draft>(() => toDraft(initial));
-  const [localErrors, setLocalErrors] = useState<Record<string, string>>({});
-  const errors = { ...serverFields, ...localErrors };
+  const [errors, setLocalErrors] = useState<Record<string, string>>({});
   const set = <K extends keyof Draft>(key: K) => (value: Draft[K]) => {
     setDraft((d) => ({ ...d, [key]: value }));
     setLocalErrors(({ [key]: _dropped, ...rest }) => rest);
@@ -153,6 +164,11 @@ export function CircuitForm({ panel, initial, isNew, busy, serverFields, formErr
     const parsed = circuitCreateBody.safeParse(candidate);
     if (!parsed.success) {
       setLocalErrors(fieldErrors(parsed.error));
+      return;
+    }
+    const layoutErrors = layoutProblems(panel, others, { id: initial.id ?? '', ...parsed.data });
+    if (Object.keys(layoutErrors).length > 0) {
+      setLocalErrors(layoutErrors);
       return;
     }
     setLocalErrors({});
@@ -293,8 +309,7 @@ export function CircuitForm({ panel, initial, isNew, busy, serverFields, formErr
       {Object.keys(errors).length > 0 && (
         <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
       )}
-      {formError && <Text tone="danger" accessibilityRole="alert">{formError}</Text>}
-      <Button label={isNew ? 'Add circuit' : 'Save circuit'} onPress={submit} busy={busy} testID="save-circuit" />
+      <Button label={isNew ? 'Add circuit' : 'Save circuit'} onPress={submit} testID="save-circuit" />
       {onDelete && <Button label="Delete circuit…" tone="secondary" onPress={onDelete} />}
     </View>
   );

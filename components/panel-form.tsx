@@ -1,7 +1,8 @@
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type PanelKind, type PanelSystem } from '@/shared/domain';
-import { fieldErrors, panelCreateBody, type Panel, type PanelPatchBody } from '@/shared/schemas';
+import { panelLayout } from '@/shared/calc';
+import { fieldErrors, panelCreateBody, type Circuit, type Panel, type PanelPatchBody } from '@/shared/schemas';
 import { Button } from './button';
 import { ChoiceField, TextField } from './fields';
 import { changedFields, numberOrNull, textOf } from './form-values';
@@ -16,13 +17,12 @@ const KIND_LABELS: Record<PanelKind, string> = {
 
 export interface PanelFormProps {
   panel: Panel;
-  busy: boolean;
-  serverFields?: Record<string, string>;
-  formError?: string;
+  /** its circuits: the spaces and system must still hold them */
+  circuits: Circuit[];
   onSubmit: (patch: PanelPatchBody) => void;
 }
 
-export function PanelForm({ panel, busy, serverFields, formError, onSubmit }: PanelFormProps) {
+export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
   const [draft, setDraft] = useState({
     tag: panel.tag,
     location: panel.location,
@@ -37,8 +37,7 @@ export function PanelForm({ panel, busy, serverFields, formError, onSubmit }: Pa
     installedOn: panel.installedOn ?? '',
     condition: panel.condition,
   });
-  const [localErrors, setLocalErrors] = useState<Record<string, string>>({});
-  const errors = { ...serverFields, ...localErrors };
+  const [errors, setLocalErrors] = useState<Record<string, string>>({});
   const set = <K extends keyof typeof draft>(key: K) => (value: (typeof draft)[K]) => {
     setDraft((d) => ({ ...d, [key]: value }));
     setLocalErrors(({ [key]: _dropped, ...rest }) => rest);
@@ -61,6 +60,11 @@ export function PanelForm({ panel, busy, serverFields, formError, onSubmit }: Pa
       return;
     }
     const { id: _id, ...fields } = parsed.data;
+    const { problems } = panelLayout({ system: fields.system, spaces: fields.spaces }, circuits);
+    if (problems.length > 0) {
+      setLocalErrors({ spaces: `existing circuits would not fit: ${problems[0].message}` });
+      return;
+    }
     onSubmit(changedFields(panel, fields));
   };
 
@@ -130,8 +134,7 @@ export function PanelForm({ panel, busy, serverFields, formError, onSubmit }: Pa
       {Object.keys(errors).length > 0 && (
         <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
       )}
-      {formError && <Text tone="danger" accessibilityRole="alert">{formError}</Text>}
-      <Button label="Save panel" onPress={submit} busy={busy} testID="save-panel" />
+      <Button label="Save panel" onPress={submit} testID="save-panel" />
     </View>
   );
 }

@@ -37,6 +37,24 @@ export function EmptyState({ title, hint, children }: { title: string; hint: str
   );
 }
 
+/**
+ * Loading, error and not-found states for a query of the device's replica: returns what to show
+ * instead of the screen, or null when the data is there.
+ */
+export function replicaGate(
+  query: { data: unknown; isError: boolean; error: unknown; refetch: () => unknown },
+  what: string,
+): React.ReactElement | null {
+  if (query.data === undefined) {
+    if (query.isError) return <ErrorState error={query.error} onRetry={() => query.refetch()} />;
+    return <LoadingState what={what} />;
+  }
+  if (query.data === null) {
+    return <EmptyState title="Not on this device" hint={`This ${what} was deleted, or you no longer have access to it. Go back and pull to refresh.`} />;
+  }
+  return null;
+}
+
 /** A thin strip over data shown from cache after a failed refresh. */
 export function StaleBanner({ error }: { error: unknown }) {
   return (

@@ -1,7 +1,8 @@
+import { REPLICA_KEY } from '@/lib/sync';
+
 /** The one query-key factory; every hook takes its keys from here. */
 export const keys = {
   me: ['me'] as const,
-  buildings: ['buildings'] as const,
-  building: (id: string) => ['buildings', id] as const,
-  panel: (id: string) => ['panels', id] as const,
+  /** the device's copy of every building the user may see (lib/replica.ts) */
+  replica: REPLICA_KEY,
 };

@@ -1,9 +1,27 @@
-import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { createContext, useContext } from 'react';
 import { api, isUnauthorised } from '@/lib/api';
 import type { MeResponse, SignInBody } from '@/shared/schemas';
 import { keys } from './keys';
 
-/** The signed-in user and their roles; `data` is null when signed out. */
+/** Which user's cache is mounted, and how to change it (app/_layout.tsx provides it). */
+export interface Account {
+  userId: string | null;
+  /** mount this user's cache (after a sign-in) */
+  switchTo(userId: string): void;
+  /** forget this user's cache on the device and show the sign-in screen */
+  forget(): Promise<void>;
+}
+export const AccountContext = createContext<Account>({
+  userId: null,
+  switchTo: () => undefined,
+  forget: async () => undefined,
+});
+
+/**
+ * The signed-in user and their roles; `data` is null when signed out. Kept in the persisted
+ * cache, so the app opens offline as the last user.
+ */
 export function useSession() {
   return useQuery({
     queryKey: keys.me,
@@ -16,36 +34,31 @@ export function useSession() {
       }
     },
     staleTime: 5 * 60_000,
+    networkMode: 'offlineFirst',
+    retry: false,
   });
-}
-
-/**
- * Drop another user's data without removing the session query itself: the root layout observes
- * it, and an observer of a removed query would never hear of the new user.
- */
-function forgetEverythingBut(queryClient: QueryClient, keep: readonly unknown[]) {
-  queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== keep[0] });
-  queryClient.getMutationCache().clear();
 }
 
 export function useSignIn() {
   const queryClient = useQueryClient();
+  const account = useContext(AccountContext);
   return useMutation({
     mutationFn: (body: SignInBody) => api.post<MeResponse>('/auth/sign-in', body),
     onSuccess: (me) => {
-      forgetEverythingBut(queryClient, keys.me);
-      queryClient.setQueryData(keys.me, me);
+      // the same user signing in again (an expired session) keeps their queue and copy
+      if (account.userId === me.user.id) queryClient.setQueryData(keys.me, me);
+      else account.switchTo(me.user.id);
     },
   });
 }
 
 export function useSignOut() {
-  const queryClient = useQueryClient();
+  const account = useContext(AccountContext);
   return useMutation({
-    mutationFn: () => api.post('/auth/sign-out'),
-    onSettled: () => {
-      queryClient.setQueryData(keys.me, null);
-      forgetEverythingBut(queryClient, keys.me);
+    mutationFn: async () => {
+      // signing out offline still clears the device; the server session then simply expires
+      await api.post('/auth/sign-out').catch(() => undefined);
+      await account.forget();
     },
   });
 }

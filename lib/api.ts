@@ -3,6 +3,7 @@
  * them to text a user can act on. Screens never call fetch: hooks call this.
  */
 import type { ApiErrorBody } from '@/shared/schemas';
+import { markUnreachable } from './online';
 
 const BASE_URL = process.env.EXPO_PUBLIC_API_URL ?? '';
 
@@ -35,6 +36,7 @@ async function request<T>(method: string, path: string, body?: unknown): Promise
       body: body === undefined ? undefined : JSON.stringify(body),
     });
   } catch (error) {
+    markUnreachable();
     throw new NetworkError(error);
   }
   const text = await response.text();

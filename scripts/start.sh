@@ -9,4 +9,6 @@ tsx_server scripts/db.ts migrate
 tsx_server scripts/db.ts seed-if-empty
 ensure_web_build
 export NODE_ENV="${NODE_ENV:-production}"
+log "Ampwright on http://${HOST:-127.0.0.1}:${PORT:-8080}"
+log "Demo sign-ins: admin@, electrician@, inspector@, owner@ampwright.test (password: ampwright-demo)"
 exec env TSX_TSCONFIG_PATH=server/tsconfig.json tsx server/index.ts

@@ -1,5 +1,6 @@
 import { Tabs } from 'expo-router/js-tabs';
 import type { ColorValue } from 'react-native';
+import { SyncStatus } from '@/components/sync-status';
 import { Text } from '@/components/text';
 import { colours, fonts } from '@/components/theme';
 
@@ -19,6 +20,7 @@ export default function TabsLayout() {
         tabBarInactiveTintColor: colours.inkSoft,
         tabBarLabelStyle: { fontFamily: fonts.textBold, fontSize: 12 },
         tabBarStyle: { backgroundColor: colours.card, minHeight: 56 },
+        headerRight: () => <SyncStatus />,
       }}
     >
       <Tabs.Screen name="index" options={{ title: 'Buildings', tabBarIcon: icon('▦') }} />

@@ -1,10 +1,10 @@
 import { useRouter } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
 import { Screen } from '@/components/screen';
-import { EmptyState, ErrorState, LoadingState, StaleBanner } from '@/components/states';
+import { EmptyState, ErrorState, LoadingState } from '@/components/states';
 import { Text } from '@/components/text';
 import { colours, MIN_TOUCH, radii, space } from '@/components/theme';
-import { useBuildings } from '@/hooks/use-buildings';
+import { useBuildings } from '@/hooks/use-register';
 
 const ROLE_LABEL = { admin: 'admin', electrician: 'electrician', inspector: 'inspector', owner: 'owner' } as const;
 
@@ -26,7 +26,6 @@ export default function Buildings() {
   }
   return (
     <>
-      {buildings.isError && <StaleBanner error={buildings.error} />}
       <Screen>
         {list.map((b) => (
           <Pressable

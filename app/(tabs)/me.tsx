@@ -5,12 +5,26 @@ import { SafetyNote } from '@/components/safety-note';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colours, radii, space } from '@/components/theme';
+import { useOutbox } from '@/hooks/use-outbox';
 import { useSession, useSignOut } from '@/hooks/use-session';
+import { confirmAction } from '@/lib/confirm';
 
 export default function Me() {
   const session = useSession();
   const signOut = useSignOut();
+  const unsynced = useOutbox().length;
   const me = session.data;
+  const onSignOut = async () => {
+    if (unsynced > 0) {
+      const ok = await confirmAction(
+        'Changes not yet synced',
+        `${unsynced} change${unsynced === 1 ? ' is' : 's are'} still only on this device. Signing out deletes ${unsynced === 1 ? 'it' : 'them'}. Sync first if you can.`,
+        'Sign out and delete',
+      );
+      if (!ok) return;
+    }
+    signOut.mutate();
+  };
   if (!me) return null;
   return (
     <Screen>
@@ -22,7 +36,7 @@ export default function Me() {
         ))}
       </View>
       <SafetyNote />
-      <Button label="Sign out" tone="secondary" onPress={() => signOut.mutate()} busy={signOut.isPending} testID="sign-out" />
+      <Button label="Sign out" tone="secondary" onPress={onSignOut} busy={signOut.isPending} testID="sign-out" />
     </Screen>
   );
 }

@@ -1,10 +1,140 @@
-import { EmptyState } from '@/components/states';
+import { StyleSheet, View } from 'react-native';
+import { useSyncExternalStore } from 'react';
+import { Button } from '@/components/button';
+import { Screen } from '@/components/screen';
+import { Text } from '@/components/text';
+import { colours, radii, space } from '@/components/theme';
+import { stampTime, timeAgo } from '@/components/time-ago';
+import { useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
+import { useSyncReview } from '@/hooks/use-register';
+import { getPersistProblem, subscribePersistProblem } from '@/lib/storage-health';
+import type { Conflict } from '@/shared/sync';
+
+const show = (value: unknown) =>
+  value === null || value === undefined || value === '' ? '(blank)' : typeof value === 'object' ? JSON.stringify(value) : String(value);
+const values = (v: Record<string, unknown>) =>
+  Object.entries(v)
+    .map(([k, x]) => (Object.keys(v).length > 1 ? `${k}: ${show(x)}` : show(x)))
+    .join(', ');
 
 export default function Sync() {
+  const online = useOnline();
+  const outbox = useOutbox();
+  const review = useSyncReview();
+  const { syncNow, pulling } = useSyncNow();
+  const persistProblem = useSyncExternalStore(subscribePersistProblem, getPersistProblem, () => null);
+  const data = review.data;
+  const needsReview = (data?.conflicts.length ?? 0) + (data?.refused.length ?? 0);
+
   return (
-    <EmptyState
-      title="Everything is on the server"
-      hint="Changes you make without a signal will wait here as “on this device” until they are synced; anything that needs review will be listed here too."
-    />
+    <Screen>
+      <View style={styles.card}>
+        <Text variant="heading" testID="sync-connection">
+          {online ? 'Connected' : 'Offline — changes stay on this device'}
+        </Text>
+        <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data?.lastSyncAt)}</Text>
+        {persistProblem && (
+          <View style={styles.problem} accessibilityRole="alert" testID="storage-problem">
+            <Text variant="small">⚠ {persistProblem}</Text>
+          </View>
+        )}
+        <Button label={pulling ? 'Syncing…' : 'Sync now'} busy={pulling} onPress={syncNow} testID="sync-now" />
+      </View>
+
+      <Section title={`On this device (${outbox.length})`} testID="outbox">
+        {outbox.length === 0 ? (
+          <Text tone="soft">Nothing waiting: every change you made has reached the server.</Text>
+        ) : (
+          outbox.map(({ mutation, since, paused }) => (
+            <View key={mutation.id} style={styles.row}>
+              <Text style={styles.flex}>{data?.describe(mutation) ?? mutation.name}</Text>
+              <Text variant="small" tone="faint">
+                {paused ? 'waiting for signal · ' : 'sending · '}
+                {timeAgo(since)}
+              </Text>
+            </View>
+          ))
+        )}
+      </Section>
+
+      <Section title={`Needs review (${needsReview})`} testID="needs-review">
+        {needsReview === 0 && <Text tone="soft">No conflicts or refused changes.</Text>}
+        {data?.conflicts.map(({ conflict, copy }) => (
+          <ConflictCard key={conflict.id} conflict={conflict} where={whereOf(conflict, copy)} />
+        ))}
+        {data?.refused.map((r) => <RefusedCard key={r.mutation.id} label={r.label} reason={r.reason} at={r.at} id={r.mutation.id} />)}
+      </Section>
+
+      <Section title="Synced" testID="synced">
+        {(data?.synced.length ?? 0) === 0 ? (
+          <Text tone="soft">Changes you send will be listed here.</Text>
+        ) : (
+          data?.synced.slice(0, 10).map((s) => (
+            <View key={s.mutationId} style={styles.row}>
+              <Text style={styles.flex}>{s.label}</Text>
+              <Text variant="small" tone="faint">{s.status} · {timeAgo(s.at)}</Text>
+            </View>
+          ))
+        )}
+      </Section>
+    </Screen>
   );
 }
+
+function whereOf(conflict: Conflict, copy: { panels: Record<string, { tag: string }>; circuits: Record<string, { panelId: string; position: number }> }) {
+  if (conflict.entity === 'circuit') {
+    const circuit = copy.circuits[conflict.entityId];
+    return circuit ? `${copy.panels[circuit.panelId]?.tag ?? 'Panel'} · position ${circuit.position}` : 'A deleted circuit';
+  }
+  if (conflict.entity === 'panel') return `Panel ${copy.panels[conflict.entityId]?.tag ?? ''}`;
+  return 'Building';
+}
+
+function ConflictCard({ conflict, where }: { conflict: Conflict; where: string }) {
+  const { keepTheirs, restoreMine } = useConflictActions();
+  const deleted = conflict.kind === 'edited_after_delete';
+  return (
+    <View style={styles.review} testID="conflict">
+      <Text variant="strong">{where} · {conflict.field}</Text>
+      <Text variant="small">
+        {deleted ? 'Deleted' : 'Kept'}: {deleted ? 'the row was deleted' : values(conflict.winnerValue)} — {conflict.winnerUserName ?? 'someone'}, {stampTime(conflict.winnerHlc)}
+      </Text>
+      <Text variant="small">
+        Not applied: {values(conflict.loserValue)} — {conflict.loserUserName ?? 'someone'}, {stampTime(conflict.loserHlc)}
+      </Text>
+      <View style={styles.actions}>
+        <Button label="Keep theirs" tone="secondary" onPress={() => keepTheirs(conflict)} testID="keep-theirs" />
+        <Button label="Restore mine" tone="secondary" onPress={() => restoreMine(conflict)} testID="restore-mine" />
+      </View>
+    </View>
+  );
+}
+
+function RefusedCard({ id, label, reason, at }: { id: string; label: string; reason: string; at: string }) {
+  const dismiss = useDismissRefused();
+  return (
+    <View style={styles.review} testID="refused">
+      <Text variant="strong">{label}</Text>
+      <Text variant="small">Refused by the server {timeAgo(at)}: {reason}</Text>
+      <Button label="Dismiss" tone="secondary" onPress={() => dismiss(id)} />
+    </View>
+  );
+}
+
+function Section({ title, children, testID }: { title: string; children: React.ReactNode; testID: string }) {
+  return (
+    <View style={styles.card} testID={testID}>
+      <Text variant="label" tone="soft">{title.toUpperCase()}</Text>
+      {children}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  card: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
+  row: { flexDirection: 'row', alignItems: 'center', gap: space.sm, paddingVertical: space.xs, borderBottomWidth: StyleSheet.hairlineWidth, borderBottomColor: colours.rule },
+  flex: { flex: 1 },
+  problem: { backgroundColor: colours.warnSoft, padding: space.sm, borderRadius: radii.sm },
+  review: { gap: space.xs, padding: space.md, borderRadius: radii.md, borderWidth: 1, borderColor: colours.danger, backgroundColor: colours.dangerSoft },
+  actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
+});

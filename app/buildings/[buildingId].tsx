@@ -2,24 +2,21 @@ import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import { FeederTree } from '@/components/feeder-tree';
 import { Screen } from '@/components/screen';
-import { EmptyState, ErrorState, LoadingState, StaleBanner } from '@/components/states';
+import { EmptyState, replicaGate } from '@/components/states';
 import { Text } from '@/components/text';
 import { space } from '@/components/theme';
-import { useBuilding } from '@/hooks/use-buildings';
+import { useBuilding } from '@/hooks/use-register';
 
 export default function BuildingScreen() {
   const { buildingId } = useLocalSearchParams<{ buildingId: string }>();
   const router = useRouter();
   const query = useBuilding(buildingId);
-  if (query.data === undefined) {
-    if (query.isError) return <ErrorState error={query.error} onRetry={() => query.refetch()} />;
-    return <LoadingState what="the building" />;
-  }
+  const gate = replicaGate(query, 'building');
+  if (gate || !query.data) return gate;
   const { building, panels } = query.data;
   return (
     <>
       <Stack.Screen options={{ title: building.name }} />
-      {query.isError && <StaleBanner error={query.error} />}
       <Screen>
         <View style={styles.head}>
           <Text variant="title">{building.name}</Text>

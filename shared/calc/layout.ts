@@ -172,3 +172,23 @@ export function panelLayout(panel: LayoutPanel, circuits: readonly LayoutCircuit
   }
   return { slots, problems };
 }
+
+/**
+ * The first position a circuit would take that another circuit already occupies, and that
+ * circuit; null when it fits beside them. Standard numbering (a 2-pole at n takes n and n+2) [CP].
+ */
+export function positionClash<C extends LayoutCircuit>(
+  candidate: LayoutCircuit,
+  others: readonly C[],
+): { position: number; circuit: C } | null {
+  const taken = new Map<number, C>();
+  for (const other of others) {
+    if (other.id === candidate.id) continue;
+    for (const position of occupiedPositions(other.position, other.poles)) taken.set(position, other);
+  }
+  for (const position of occupiedPositions(candidate.position, candidate.poles)) {
+    const circuit = taken.get(position);
+    if (circuit) return { position, circuit };
+  }
+  return null;
+}

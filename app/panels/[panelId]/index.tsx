@@ -7,10 +7,10 @@ import { PanelProblems } from '@/components/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/panel-schedule';
 import { SafetyNote } from '@/components/safety-note';
 import { Screen } from '@/components/screen';
-import { ErrorState, LoadingState, StaleBanner } from '@/components/states';
+import { replicaGate } from '@/components/states';
 import { Text } from '@/components/text';
 import { colours, radii, space } from '@/components/theme';
-import { usePanel } from '@/hooks/use-panel';
+import { usePanel } from '@/hooks/use-register';
 import { canEditSchedules } from '@/hooks/use-session';
 import { SYSTEM_INFO } from '@/shared/domain';
 
@@ -22,10 +22,8 @@ export default function PanelScreen() {
     () => (query.data ? warningsByCircuit(query.data.panel, query.data.circuits) : new Map()),
     [query.data],
   );
-  if (query.data === undefined) {
-    if (query.isError) return <ErrorState error={query.error} onRetry={() => query.refetch()} />;
-    return <LoadingState what="the panel schedule" />;
-  }
+  const gate = replicaGate(query, 'panel');
+  if (gate || !query.data) return gate;
   const { panel, building, circuits } = query.data;
   const canEdit = canEditSchedules(building.role);
   const openCircuit = (circuit: { id: string }) =>
@@ -43,7 +41,6 @@ export default function PanelScreen() {
   return (
     <>
       <Stack.Screen options={{ title: `${panel.tag} · ${building.name}` }} />
-      {query.isError && <StaleBanner error={query.error} />}
       <Screen wide>
         <View style={styles.head}>
           <View style={styles.tag}>

@@ -3,7 +3,7 @@ import assert from 'node:assert/strict';
 import fc from 'fast-check';
 import { SYSTEMS, SYSTEM_INFO } from '../../../shared/domain';
 import type { PanelSystem, Phase } from '../../../shared/domain';
-import { occupiedPositions, panelLayout, phaseOf } from '../../../shared/calc';
+import { occupiedPositions, panelLayout, phaseOf, positionClash } from '../../../shared/calc';
 
 // Source for every row: standard panelboard numbering as DESIGN.md §3 states it — odd positions left,
 // even right, rows share a bus phase; 1φ 3W rows alternate A, B; 3φ rows cycle A, B, C. [CP]
@@ -201,4 +201,26 @@ describe(`panelLayout — ${NUMBERING}`, () => {
       ),
     );
   });
+});
+
+describe('positionClash', () => {
+  // standard numbering [CP]: a 2-pole at n takes n and n+2, a 3-pole n, n+2, n+4
+  const others = [
+    { id: 'a', position: 3, poles: 1 },
+    { id: 'b', position: 6, poles: 3 },
+  ];
+  const rows: [string, { id: string; position: number; poles: number }, number | null, string | null][] = [
+    ['2-pole at 1 reaches 3', { id: 'x', position: 1, poles: 2 }, 3, 'a'],
+    ['1-pole at 1 fits', { id: 'x', position: 1, poles: 1 }, null, null],
+    ['1-pole at 10 meets the 3-pole at 6 (6, 8, 10)', { id: 'x', position: 10, poles: 1 }, 10, 'b'],
+    ['2-pole at 5 (5, 7) fits between', { id: 'x', position: 5, poles: 2 }, null, null],
+    ['a circuit never clashes with itself', { id: 'a', position: 3, poles: 1 }, null, null],
+  ];
+  for (const [name, candidate, position, circuitId] of rows) {
+    it(name, () => {
+      const clash = positionClash(candidate, others);
+      assert.equal(clash?.position ?? null, position);
+      assert.equal(clash?.circuit.id ?? null, circuitId);
+    });
+  }
 });

@@ -1,0 +1,81 @@
+/**
+ * Reads of buildings, panels and circuits, all from the device's replica: they work offline and
+ * show queued changes at once.
+ */
+import { useQuery } from '@tanstack/react-query';
+import { useCallback } from 'react';
+import { describeMutation, type Replica } from '@/lib/replica';
+import type { Mutation } from '@/shared/sync';
+import type { Building, Circuit, Panel } from '@/shared/schemas';
+import { keys } from './keys';
+
+function useReplica<T>(select: (r: Replica) => T) {
+  return useQuery({ queryKey: keys.replica, select });
+}
+
+const byName = (a: Building, b: Building) => a.name.localeCompare(b.name);
+const byTag = (a: Panel, b: Panel) => a.tag.localeCompare(b.tag, undefined, { numeric: true });
+const byPosition = (a: Circuit, b: Circuit) => a.position - b.position;
+
+export function useBuildings() {
+  return useReplica(
+    useCallback(
+      (r: Replica) => ({
+        buildings: Object.values(r.buildings)
+          .map((c) => ({ ...c.building, panelCount: Object.keys(c.panels).length }))
+          .sort(byName),
+      }),
+      [],
+    ),
+  );
+}
+
+/** `null` when the building is not on this device (deleted, or not yours). */
+export function useBuilding(buildingId: string) {
+  return useReplica(
+    useCallback(
+      (r: Replica) => {
+        const copy = r.buildings[buildingId];
+        if (!copy) return null;
+        return { building: copy.building, panels: Object.values(copy.panels).sort(byTag) };
+      },
+      [buildingId],
+    ),
+  );
+}
+
+export function findPanel(r: Replica, panelId: string) {
+  for (const copy of Object.values(r.buildings)) {
+    const panel = copy.panels[panelId];
+    if (panel) {
+      const circuits = Object.values(copy.circuits).filter((c) => c.panelId === panelId).sort(byPosition);
+      return { panel, building: copy.building, circuits, panels: Object.values(copy.panels).sort(byTag) };
+    }
+  }
+  return null;
+}
+
+/** `null` when the panel is not on this device. */
+export function usePanel(panelId: string) {
+  return useReplica(useCallback((r: Replica) => findPanel(r, panelId), [panelId]));
+}
+
+/** Everything the Sync tab shows. */
+export function useSyncReview() {
+  return useReplica(
+    useCallback(
+      (r: Replica) => ({
+        conflicts: Object.values(r.buildings)
+          .flatMap((c) => Object.values(c.conflicts).map((conflict) => ({ conflict, copy: c })))
+          .filter(({ conflict }) => conflict.resolution === null)
+          .sort((a, b) => b.conflict.updatedAt.localeCompare(a.conflict.updatedAt)),
+        refused: r.refused,
+        synced: r.synced,
+        lastSyncAt: r.lastSyncAt,
+        /** how a queued change reads, against the current copy */
+        describe: (m: Mutation) => describeMutation(r, m),
+      }),
+      [],
+    ),
+  );
+}

@@ -1,0 +1,115 @@
+/**
+ * The sync engine: an outbox of queued mutations (TanStack mutations with one scope, persisted,
+ * replayed in order) and a pull loop that keeps the device's replica current. See SYNC.md.
+ */
+import type { Mutation as QueryMutation, QueryClient } from '@tanstack/react-query';
+import { SCHEMA_VERSION, type Mutation, type MutationResult, type PullResponse, type PushResponse } from '@/shared/sync';
+import { api, ApiError, describeError, NetworkError } from './api';
+import { deviceId, observe } from './device';
+import { applyMutation, applyPull, cursorsOf, EMPTY_REPLICA, recordResult, type Replica } from './replica';
+
+export const OUTBOX_KEY = ['sync'] as const;
+export const REPLICA_KEY = ['replica'] as const;
+const MAX_PULL_PAGES = 100;
+
+/** Worth trying again later: no answer, the server busy or failing, or the session to renew. */
+export function isTransient(error: unknown): boolean {
+  if (error instanceof NetworkError) return true;
+  if (error instanceof ApiError) return error.status >= 500 || [401, 408, 425, 429].includes(error.status);
+  return false;
+}
+
+async function pushOne(mutation: Mutation): Promise<MutationResult> {
+  const response = await api.post<PushResponse>('/sync/push', {
+    deviceId: deviceId(),
+    schemaVersion: SCHEMA_VERSION,
+    mutations: [mutation],
+  });
+  observe(response.serverHlc);
+  return response.results[0];
+}
+
+export function pendingOutbox(queryClient: QueryClient): QueryMutation<unknown, unknown, Mutation>[] {
+  return queryClient
+    .getMutationCache()
+    .findAll({ mutationKey: OUTBOX_KEY, status: 'pending' }) as QueryMutation<unknown, unknown, Mutation>[];
+}
+
+function rebase(queryClient: QueryClient, replica: Replica, userId: string): Replica {
+  return pendingOutbox(queryClient).reduce(
+    (r, m) => (m.state.variables ? applyMutation(r, m.state.variables, userId) : r),
+    replica,
+  );
+}
+
+/** Pull every page since the device's cursors, then lay the still-queued changes on top. */
+async function pullAll(queryClient: QueryClient, userId: string): Promise<Replica> {
+  const start = queryClient.getQueryData<Replica>(REPLICA_KEY) ?? EMPTY_REPLICA;
+  let pulled = start;
+  for (let page = 0; page < MAX_PULL_PAGES; page++) {
+    const response = await api.post<PullResponse>('/sync/pull', {
+      deviceId: deviceId(),
+      schemaVersion: SCHEMA_VERSION,
+      cursors: cursorsOf(pulled),
+    });
+    observe(response.serverHlc);
+    pulled = applyPull(pulled, response);
+    if (!response.buildings.some((b) => b.hasMore)) break;
+  }
+  // the Sync tab's lists may have changed while the pull was on the wire: keep theirs
+  const latest = queryClient.getQueryData<Replica>(REPLICA_KEY) ?? start;
+  return rebase(queryClient, { ...latest, buildings: pulled.buildings, lastSyncAt: new Date().toISOString() }, userId);
+}
+
+function updateReplica(queryClient: QueryClient, edit: (r: Replica) => Replica) {
+  queryClient.setQueryData<Replica>(REPLICA_KEY, (r) => edit(r ?? EMPTY_REPLICA));
+}
+
+/**
+ * Defaults for the replica query and the outbox. Registered before the persisted cache is
+ * restored: a restored mutation only knows its key, and finds its function and scope here.
+ */
+export function configureSync(queryClient: QueryClient, userId: string): void {
+  queryClient.setQueryDefaults(REPLICA_KEY, {
+    queryFn: () => pullAll(queryClient, userId),
+    networkMode: 'offlineFirst',
+    retry: false,
+    staleTime: 10_000,
+    gcTime: Infinity,
+    refetchInterval: 60_000,
+  });
+  queryClient.setMutationDefaults(OUTBOX_KEY, {
+    mutationFn: (m: Mutation) => pushOne(m),
+    // one scope: queued changes go out one at a time, in the order they were made, even after reload
+    scope: { id: 'outbox' },
+    networkMode: 'offlineFirst',
+    gcTime: Infinity,
+    // retry only transient errors: a 4xx for the whole request would wedge the queue
+    retry: (_count: number, error: unknown) => isTransient(error),
+    retryDelay: (attempt: number) => Math.min(30_000, 1000 * 2 ** attempt) * (0.5 + Math.random() / 2),
+    onMutate: (m: Mutation) => updateReplica(queryClient, (r) => applyMutation(r, m, userId)),
+    onSuccess: (result: MutationResult, m: Mutation) => {
+      updateReplica(queryClient, (r) => recordResult(r, m, result, new Date().toISOString()));
+      // the last queued change is out: fetch the truth (the mutation itself still counts as pending)
+      if (pendingOutbox(queryClient).length <= 1) void queryClient.invalidateQueries({ queryKey: REPLICA_KEY });
+    },
+    onError: (error: unknown, m: Mutation) => {
+      // only a final, non-transient failure gets here: keep the change for review, never drop it
+      updateReplica(queryClient, (r) =>
+        recordResult(r, m, { id: m.id, status: 'rejected', version: 0, reason: describeError(error) }, new Date().toISOString()),
+      );
+      void queryClient.invalidateQueries({ queryKey: REPLICA_KEY });
+    },
+  });
+}
+
+/**
+ * After a restore: resume what was paused offline, and continue what was in flight at reload
+ * (TanStack does not resume those by itself).
+ */
+export async function resumeOutbox(queryClient: QueryClient): Promise<void> {
+  await queryClient.resumePausedMutations();
+  for (const m of pendingOutbox(queryClient)) {
+    if (!m.state.isPaused) void m.continue();
+  }
+}
