@@ -9,9 +9,10 @@ import { ErrorState, LoadingState } from '@/components/states';
 import { SyncStatus } from '@/components/sync-status';
 import { colours, fonts } from '@/components/theme';
 import { AccountContext, useSession, type Account } from '@/hooks/use-session';
-import { cacheKey, getActiveUser, makePersister, setActiveUser, setCacheFlush, wipeUserCache } from '@/lib/account';
+import { cacheKey, getActiveUser, makePersister, setActiveUser, setCacheFlush, wipeUserCache, withoutBuildingCopy } from '@/lib/account';
+import { reportPersistFailure } from '@/lib/storage-health';
 import { kv } from '@/lib/storage';
-import { loadDevice } from '@/lib/device';
+import { deviceId, loadDevice } from '@/lib/device';
 import { registerOfflineShell } from '@/lib/offline-shell';
 import { installOnlineDetection } from '@/lib/online';
 import { makeQueryClient } from '@/lib/query-client';
@@ -31,7 +32,11 @@ export default function RootLayout() {
   const [userId, setUserId] = useState<string | null | undefined>(undefined);
   useEffect(() => {
     installOnlineDetection();
-    Promise.all([loadDevice(), getActiveUser()]).then(([, id]) => setUserId(id));
+    Promise.all([loadDevice(), getActiveUser()]).then(([, id]) => {
+      // lets a support person (and the browser tests) tell devices apart
+      if (typeof document !== 'undefined') document.documentElement.dataset.deviceId = deviceId();
+      setUserId(id);
+    });
   }, []);
   const ready = (fontsLoaded || !!fontError) && userId !== undefined;
   useEffect(() => {
@@ -100,15 +105,16 @@ function UserCache({ userId }: { userId: string }) {
  */
 function useImmediateSave(queryClient: QueryClient, userId: string) {
   useEffect(() => {
-    const flush = () =>
-      kv.setItem(
-        cacheKey(userId),
-        JSON.stringify({
-          buster: String(SCHEMA_VERSION),
-          timestamp: Date.now(),
-          clientState: dehydrate(queryClient, dehydrateOptions),
-        }),
-      );
+    const flush = async () => {
+      const snapshot = { buster: String(SCHEMA_VERSION), timestamp: Date.now(), clientState: dehydrate(queryClient, dehydrateOptions) };
+      try {
+        await kv.setItem(cacheKey(userId), JSON.stringify(snapshot));
+      } catch (error) {
+        // full device: keep at least the queue, then say so
+        await kv.setItem(cacheKey(userId), JSON.stringify(withoutBuildingCopy(snapshot)));
+        reportPersistFailure(error as Error);
+      }
+    };
     setCacheFlush(flush);
     if (typeof document === 'undefined' || typeof window.addEventListener !== 'function') return () => setCacheFlush(null);
     const save = () => void flush();

@@ -16,21 +16,13 @@ export function SyncStatus() {
   const review = useSyncReview();
   const needsReview = (review.data?.conflicts.length ?? 0) + (review.data?.refused.length ?? 0);
   const waiting = outbox.length;
-  let label: string;
-  let tone: 'ok' | 'wait' | 'alert' | 'off';
-  if (needsReview > 0) {
-    label = `! needs review (${needsReview})`;
-    tone = 'alert';
-  } else if (!online) {
-    label = waiting > 0 ? `○ offline · on this device (${waiting})` : '○ offline';
-    tone = 'off';
-  } else if (waiting > 0) {
-    label = `↑ on this device (${waiting})`;
-    tone = 'wait';
-  } else {
-    label = '✓ synced';
-    tone = 'ok';
-  }
+  const parts: string[] = [];
+  if (!online) parts.push('○ offline');
+  if (waiting > 0) parts.push(`${online ? '↑ ' : ''}on this device (${waiting})`);
+  if (needsReview > 0) parts.push(`${parts.length ? '' : '! '}needs review (${needsReview})`);
+  if (parts.length === 0) parts.push('✓ synced');
+  const label = parts.join(' · ');
+  const tone = needsReview > 0 ? 'alert' : !online ? 'off' : waiting > 0 ? 'wait' : 'ok';
   return (
     <Pressable
       accessibilityRole="button"

@@ -77,10 +77,12 @@ export function useConflictActions() {
     keepTheirs: (c: Conflict) => resolve(c, 'kept_theirs'),
     restoreMine: (c: Conflict) => {
       const kind = ENTITY_MUTATION[c.entity];
+      // the conflict row is at least as new as the write that won: this is no new concurrent edit
+      const baseVersion = c.version;
       if (c.kind === 'edited_after_delete') {
-        enqueue({ name: `${kind}.restore`, buildingId: c.buildingId, entityId: c.entityId, baseVersion: 0, fields: {} });
+        enqueue({ name: `${kind}.restore`, buildingId: c.buildingId, entityId: c.entityId, baseVersion, fields: {} });
       }
-      enqueue({ name: `${kind}.patch`, buildingId: c.buildingId, entityId: c.entityId, baseVersion: 0, fields: c.loserValue });
+      enqueue({ name: `${kind}.patch`, buildingId: c.buildingId, entityId: c.entityId, baseVersion, fields: c.loserValue });
       resolve(c, 'restored_mine');
     },
   };
@@ -116,7 +118,7 @@ export function useSyncNow() {
     pulling,
     syncNow: async () => {
       probeNow();
-      await queryClient.resumePausedMutations();
+      void queryClient.resumePausedMutations();
       await queryClient.invalidateQueries({ queryKey: keys.replica });
     },
   };

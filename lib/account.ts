@@ -3,7 +3,7 @@
  * query client under `ampwright:cache:<userId>`), so one phone can be shared without mixing data.
  */
 import { createAsyncStoragePersister } from '@tanstack/query-async-storage-persister';
-import type { Persister } from '@tanstack/react-query-persist-client';
+import type { PersistedClient, Persister } from '@tanstack/react-query-persist-client';
 import { reportPersistFailure, reportPersistOk } from './storage-health';
 import { kv } from './storage';
 
@@ -23,30 +23,40 @@ export async function wipeUserCache(userId: string): Promise<void> {
   await kv.removeItem(cacheKey(userId));
 }
 
+/**
+ * What to keep when the device is full: the session and the outbox, not the copy of the buildings
+ * (it can be pulled again; unsent changes cannot be typed again).
+ */
+export function withoutBuildingCopy(client: PersistedClient): PersistedClient {
+  const queries = client.clientState.queries.filter((q) => q.queryKey[0] === 'me');
+  return { ...client, clientState: { ...client.clientState, queries } };
+}
+
 export function makePersister(userId: string): Persister {
-  // true while the write in progress is the reduced one after a failure: its success is no all-clear
-  let reduced = false;
+  // set while the reduced snapshot after a failed save is being written: only once it is stored
+  // does the user hear "out of storage, your changes are kept"
+  let reducedAfter: Error | null = null;
   const storage = {
     getItem: (key: string) => kv.getItem(key),
     removeItem: (key: string) => kv.removeItem(key),
     setItem: async (key: string, value: string) => {
       await kv.setItem(key, value);
-      if (reduced) reduced = false;
+      if (reducedAfter) reportPersistFailure(reducedAfter);
       else reportPersistOk();
+      reducedAfter = null;
     },
   };
   return createAsyncStoragePersister({
     storage,
     key: cacheKey(userId),
     throttleTime: 200,
-    // the device is full: keep the outbox and the session, give up the copy of the buildings
-    // (it can be pulled again; unsent changes cannot be typed again)
     retry: ({ persistedClient, error, errorCount }) => {
-      reportPersistFailure(error);
-      if (errorCount > 1) return undefined;
-      reduced = true;
-      const queries = persistedClient.clientState.queries.filter((q) => q.queryKey[0] === 'me');
-      return { ...persistedClient, clientState: { ...persistedClient.clientState, queries } };
+      if (errorCount > 1) {
+        reportPersistFailure(error);
+        return undefined;
+      }
+      reducedAfter = error;
+      return withoutBuildingCopy(persistedClient);
     },
   });
 }

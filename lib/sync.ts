@@ -105,10 +105,11 @@ export function configureSync(queryClient: QueryClient, userId: string): void {
 
 /**
  * After a restore: resume what was paused offline, and continue what was in flight at reload
- * (TanStack does not resume those by itself).
+ * (TanStack does not resume those by itself). Not awaited: offline, the resumed mutations only
+ * settle when the signal returns, and the app must open meanwhile.
  */
-export async function resumeOutbox(queryClient: QueryClient): Promise<void> {
-  await queryClient.resumePausedMutations();
+export function resumeOutbox(queryClient: QueryClient): void {
+  void queryClient.resumePausedMutations();
   for (const m of pendingOutbox(queryClient)) {
     if (!m.state.isPaused) void m.continue();
   }

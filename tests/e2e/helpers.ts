@@ -16,3 +16,25 @@ export async function openPanel(page: Page, building: string, tag: string) {
   await page.getByTestId(`panel-${tag}`).click();
   await expect(page.getByTestId('position-1')).toBeVisible();
 }
+
+/** Wait until the service worker keeps the app's files, so a reload with no signal still opens it. */
+export async function waitOfflineReady(page: Page) {
+  await expect(page.locator('html[data-offline-ready="true"]')).toHaveCount(1, { timeout: 20_000 });
+}
+
+/** Open a circuit from the schedule, change its description, save, and be back on the schedule. */
+export async function editDescription(page: Page, position: number, description: string) {
+  await page.getByTestId(`position-${position}`).click();
+  await page.getByTestId('field-description').fill(description);
+  await page.getByTestId('save-circuit').click();
+  await expect(page.getByTestId(`position-${position}`)).toContainText(description);
+}
+
+export async function expectStatus(page: Page, text: string | RegExp, timeout = 20_000) {
+  await expect(page.getByTestId('sync-status').filter({ visible: true }).first()).toContainText(text, { timeout });
+}
+
+/** Nothing left on the device: every queued change got its answer (conflicts may remain). */
+export async function expectQueueEmpty(page: Page, timeout = 30_000) {
+  await expect(page.getByTestId('sync-status').filter({ visible: true }).first()).toHaveText(/^(✓ synced|! needs review \(\d+\))$/, { timeout });
+}
