@@ -75,7 +75,7 @@ export default function RootLayout() {
 const dehydrateOptions = {
   // persist by allow-list: the session and the building copy; mutations still waiting
   shouldDehydrateQuery: (q: { queryKey: readonly unknown[]; state: { status: string } }) =>
-    q.state.status === 'success' && (q.queryKey[0] === 'me' || q.queryKey[0] === 'replica'),
+    q.state.status === 'success' && ['me', 'replica', 'sync-log'].includes(String(q.queryKey[0])),
   shouldDehydrateMutation: (m: { state: { status: string } }) => m.state.status === 'pending',
 };
 

@@ -14,7 +14,7 @@ export function SyncStatus() {
   const online = useOnline();
   const outbox = useOutbox();
   const review = useSyncReview();
-  const needsReview = (review.data?.conflicts.length ?? 0) + (review.data?.refused.length ?? 0);
+  const needsReview = review.conflicts.length + review.refused.length;
   const waiting = outbox.length;
   const parts: string[] = [];
   if (!online) parts.push('○ offline');

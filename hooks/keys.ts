@@ -1,8 +1,10 @@
-import { REPLICA_KEY } from '@/lib/sync';
+import { REPLICA_KEY, SYNC_LOG_KEY } from '@/lib/sync';
 
 /** The one query-key factory; every hook takes its keys from here. */
 export const keys = {
   me: ['me'] as const,
   /** the device's copy of every building the user may see (lib/replica.ts) */
   replica: REPLICA_KEY,
+  /** what happened to this device's pushed changes (lib/replica.ts SyncLog) */
+  syncLog: SYNC_LOG_KEY,
 };

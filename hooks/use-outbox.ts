@@ -8,7 +8,7 @@ import { uuidv7 } from 'uuidv7';
 import { flushCacheSoon } from '@/lib/account';
 import { stamp } from '@/lib/device';
 import { probeNow } from '@/lib/online';
-import { dismissRefused, EMPTY_REPLICA, type Replica } from '@/lib/replica';
+import { dismissRefused, EMPTY_REPLICA, EMPTY_SYNC_LOG, type Replica, type SyncLog } from '@/lib/replica';
 import { OUTBOX_KEY } from '@/lib/sync';
 import type { CircuitCreateBody, CircuitPatchBody, PanelPatchBody } from '@/shared/schemas';
 import type { Conflict, Mutation, MutationResult } from '@/shared/sync';
@@ -91,7 +91,7 @@ export function useConflictActions() {
 export function useDismissRefused() {
   const queryClient = useQueryClient();
   return (mutationId: string) =>
-    queryClient.setQueryData<Replica>(keys.replica, (r) => dismissRefused(r ?? EMPTY_REPLICA, mutationId));
+    queryClient.setQueryData<SyncLog>(keys.syncLog, (log) => dismissRefused(log ?? EMPTY_SYNC_LOG, mutationId));
 }
 
 /** The changes still on this device, oldest first. */

@@ -4,7 +4,7 @@
  */
 import { useQuery } from '@tanstack/react-query';
 import { useCallback } from 'react';
-import { describeMutation, type Replica } from '@/lib/replica';
+import { describeMutation, type Replica, type SyncLog } from '@/lib/replica';
 import type { Mutation } from '@/shared/sync';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
 import { keys } from './keys';
@@ -60,17 +60,15 @@ export function usePanel(panelId: string) {
   return useReplica(useCallback((r: Replica) => findPanel(r, panelId), [panelId]));
 }
 
-/** Everything the Sync tab shows. */
+/** Everything the Sync tab shows: conflicts from the copy, refused and synced from the log. */
 export function useSyncReview() {
-  return useReplica(
+  const copy = useReplica(
     useCallback(
       (r: Replica) => ({
         conflicts: Object.values(r.buildings)
           .flatMap((c) => Object.values(c.conflicts).map((conflict) => ({ conflict, copy: c })))
           .filter(({ conflict }) => conflict.resolution === null)
           .sort((a, b) => b.conflict.updatedAt.localeCompare(a.conflict.updatedAt)),
-        refused: r.refused,
-        synced: r.synced,
         lastSyncAt: r.lastSyncAt,
         /** how a queued change reads, against the current copy */
         describe: (m: Mutation) => describeMutation(r, m),
@@ -78,4 +76,12 @@ export function useSyncReview() {
       [],
     ),
   );
+  const log = useQuery({ queryKey: keys.syncLog, select: (l: SyncLog) => l });
+  return {
+    conflicts: copy.data?.conflicts ?? [],
+    lastSyncAt: copy.data?.lastSyncAt ?? null,
+    describe: copy.data?.describe ?? ((m: Mutation) => m.name),
+    refused: log.data?.refused ?? [],
+    synced: log.data?.synced ?? [],
+  };
 }

@@ -28,7 +28,7 @@ export async function wipeUserCache(userId: string): Promise<void> {
  * (it can be pulled again; unsent changes cannot be typed again).
  */
 export function withoutBuildingCopy(client: PersistedClient): PersistedClient {
-  const queries = client.clientState.queries.filter((q) => q.queryKey[0] === 'me');
+  const queries = client.clientState.queries.filter((q) => q.queryKey[0] !== 'replica');
   return { ...client, clientState: { ...client.clientState, queries } };
 }
 

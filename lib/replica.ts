@@ -32,13 +32,22 @@ export interface SyncedChange {
 
 export interface Replica {
   buildings: Record<string, BuildingCopy>;
-  refused: RefusedChange[];
-  /** the latest changes that reached the server, newest first */
-  synced: SyncedChange[];
   lastSyncAt: string | null;
 }
 
-export const EMPTY_REPLICA: Replica = { buildings: {}, refused: [], synced: [], lastSyncAt: null };
+export const EMPTY_REPLICA: Replica = { buildings: {}, lastSyncAt: null };
+
+/**
+ * What happened to this device's changes. A query of its own, written only by the outbox: a pull
+ * that lands a moment after a push answered can then never overwrite it.
+ */
+export interface SyncLog {
+  refused: RefusedChange[];
+  /** the latest changes that reached the server, newest first */
+  synced: SyncedChange[];
+}
+
+export const EMPTY_SYNC_LOG: SyncLog = { refused: [], synced: [] };
 const SYNCED_KEPT = 30;
 
 const byId = <T extends { id: string }>(rows: T[]) => Object.fromEntries(rows.map((r) => [r.id, r]));
@@ -161,17 +170,16 @@ export function describeMutation(replica: Replica, m: Mutation): string {
   return `${copy?.building.name ?? 'Building'} ${verb}${what}`;
 }
 
-/** Record what the server said about a pushed change. */
-export function recordResult(replica: Replica, m: Mutation, result: MutationResult, now: string): Replica {
-  const label = describeMutation(replica, m);
-  const synced = [{ mutationId: m.id, label, status: result.status, at: now }, ...replica.synced].slice(0, SYNCED_KEPT);
+/** Record what the server said about a pushed change; `label` from describeMutation. */
+export function recordResult(log: SyncLog, label: string, m: Mutation, result: MutationResult, now: string): SyncLog {
+  const synced = [{ mutationId: m.id, label, status: result.status, at: now }, ...log.synced].slice(0, SYNCED_KEPT);
   if (result.status === 'rejected' || result.originalStatus === 'rejected') {
-    const refused = [{ mutation: m, label, reason: result.reason ?? 'refused by the server', at: now }, ...replica.refused];
-    return { ...replica, synced, refused };
+    const refused = [{ mutation: m, label, reason: result.reason ?? 'refused by the server', at: now }, ...log.refused];
+    return { synced, refused };
   }
-  return { ...replica, synced };
+  return { ...log, synced };
 }
 
-export function dismissRefused(replica: Replica, mutationId: string): Replica {
-  return { ...replica, refused: replica.refused.filter((r) => r.mutation.id !== mutationId) };
+export function dismissRefused(log: SyncLog, mutationId: string): SyncLog {
+  return { ...log, refused: log.refused.filter((r) => r.mutation.id !== mutationId) };
 }

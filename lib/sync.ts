@@ -6,10 +6,21 @@ import type { Mutation as QueryMutation, QueryClient } from '@tanstack/react-que
 import { SCHEMA_VERSION, type Mutation, type MutationResult, type PullResponse, type PushResponse } from '@/shared/sync';
 import { api, ApiError, describeError, NetworkError } from './api';
 import { deviceId, observe } from './device';
-import { applyMutation, applyPull, cursorsOf, EMPTY_REPLICA, recordResult, type Replica } from './replica';
+import {
+  applyMutation,
+  applyPull,
+  cursorsOf,
+  describeMutation,
+  EMPTY_REPLICA,
+  EMPTY_SYNC_LOG,
+  recordResult,
+  type Replica,
+  type SyncLog,
+} from './replica';
 
 export const OUTBOX_KEY = ['sync'] as const;
 export const REPLICA_KEY = ['replica'] as const;
+export const SYNC_LOG_KEY = ['sync-log'] as const;
 const MAX_PULL_PAGES = 100;
 
 /** Worth trying again later: no answer, the server busy or failing, or the session to renew. */
@@ -56,13 +67,18 @@ async function pullAll(queryClient: QueryClient, userId: string): Promise<Replic
     pulled = applyPull(pulled, response);
     if (!response.buildings.some((b) => b.hasMore)) break;
   }
-  // the Sync tab's lists may have changed while the pull was on the wire: keep theirs
-  const latest = queryClient.getQueryData<Replica>(REPLICA_KEY) ?? start;
-  return rebase(queryClient, { ...latest, buildings: pulled.buildings, lastSyncAt: new Date().toISOString() }, userId);
+  return rebase(queryClient, { buildings: pulled.buildings, lastSyncAt: new Date().toISOString() }, userId);
 }
 
 function updateReplica(queryClient: QueryClient, edit: (r: Replica) => Replica) {
   queryClient.setQueryData<Replica>(REPLICA_KEY, (r) => edit(r ?? EMPTY_REPLICA));
+}
+
+function logResult(queryClient: QueryClient, m: Mutation, result: MutationResult) {
+  const label = describeMutation(queryClient.getQueryData<Replica>(REPLICA_KEY) ?? EMPTY_REPLICA, m);
+  queryClient.setQueryData<SyncLog>(SYNC_LOG_KEY, (log) =>
+    recordResult(log ?? EMPTY_SYNC_LOG, label, m, result, new Date().toISOString()),
+  );
 }
 
 /**
@@ -70,6 +86,8 @@ function updateReplica(queryClient: QueryClient, edit: (r: Replica) => Replica) 
  * restored: a restored mutation only knows its key, and finds its function and scope here.
  */
 export function configureSync(queryClient: QueryClient, userId: string): void {
+  // written only by the outbox; never fetched
+  queryClient.setQueryDefaults(SYNC_LOG_KEY, { queryFn: () => EMPTY_SYNC_LOG, staleTime: Infinity, gcTime: Infinity });
   queryClient.setQueryDefaults(REPLICA_KEY, {
     queryFn: () => pullAll(queryClient, userId),
     networkMode: 'offlineFirst',
@@ -89,15 +107,13 @@ export function configureSync(queryClient: QueryClient, userId: string): void {
     retryDelay: (attempt: number) => Math.min(30_000, 1000 * 2 ** attempt) * (0.5 + Math.random() / 2),
     onMutate: (m: Mutation) => updateReplica(queryClient, (r) => applyMutation(r, m, userId)),
     onSuccess: (result: MutationResult, m: Mutation) => {
-      updateReplica(queryClient, (r) => recordResult(r, m, result, new Date().toISOString()));
+      logResult(queryClient, m, result);
       // the last queued change is out: fetch the truth (the mutation itself still counts as pending)
       if (pendingOutbox(queryClient).length <= 1) void queryClient.invalidateQueries({ queryKey: REPLICA_KEY });
     },
     onError: (error: unknown, m: Mutation) => {
       // only a final, non-transient failure gets here: keep the change for review, never drop it
-      updateReplica(queryClient, (r) =>
-        recordResult(r, m, { id: m.id, status: 'rejected', version: 0, reason: describeError(error) }, new Date().toISOString()),
-      );
+      logResult(queryClient, m, { id: m.id, status: 'rejected', version: 0, reason: describeError(error) });
       void queryClient.invalidateQueries({ queryKey: REPLICA_KEY });
     },
   });

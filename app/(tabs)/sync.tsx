@@ -23,8 +23,8 @@ export default function Sync() {
   const review = useSyncReview();
   const { syncNow, pulling } = useSyncNow();
   const persistProblem = useSyncExternalStore(subscribePersistProblem, getPersistProblem, () => null);
-  const data = review.data;
-  const needsReview = (data?.conflicts.length ?? 0) + (data?.refused.length ?? 0);
+  const data = review;
+  const needsReview = data.conflicts.length + data.refused.length;
 
   return (
     <Screen>
@@ -32,7 +32,7 @@ export default function Sync() {
         <Text variant="heading" testID="sync-connection">
           {online ? 'Connected' : 'Offline — changes stay on this device'}
         </Text>
-        <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data?.lastSyncAt)}</Text>
+        <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data.lastSyncAt)}</Text>
         {persistProblem && (
           <View style={styles.problem} accessibilityRole="alert" testID="storage-problem">
             <Text variant="small">⚠ {persistProblem}</Text>
@@ -47,7 +47,7 @@ export default function Sync() {
         ) : (
           outbox.map(({ mutation, since, paused }) => (
             <View key={mutation.id} style={styles.row}>
-              <Text style={styles.flex}>{data?.describe(mutation) ?? mutation.name}</Text>
+              <Text style={styles.flex}>{data.describe(mutation)}</Text>
               <Text variant="small" tone="faint">
                 {paused ? 'waiting for signal · ' : 'sending · '}
                 {timeAgo(since)}
@@ -59,17 +59,17 @@ export default function Sync() {
 
       <Section title={`Needs review (${needsReview})`} testID="needs-review">
         {needsReview === 0 && <Text tone="soft">No conflicts or refused changes.</Text>}
-        {data?.conflicts.map(({ conflict, copy }) => (
+        {data.conflicts.map(({ conflict, copy }) => (
           <ConflictCard key={conflict.id} conflict={conflict} where={whereOf(conflict, copy)} />
         ))}
-        {data?.refused.map((r) => <RefusedCard key={r.mutation.id} label={r.label} reason={r.reason} at={r.at} id={r.mutation.id} />)}
+        {data.refused.map((r) => <RefusedCard key={r.mutation.id} label={r.label} reason={r.reason} at={r.at} id={r.mutation.id} />)}
       </Section>
 
       <Section title="Synced" testID="synced">
-        {(data?.synced.length ?? 0) === 0 ? (
+        {data.synced.length === 0 ? (
           <Text tone="soft">Changes you send will be listed here.</Text>
         ) : (
-          data?.synced.slice(0, 10).map((s) => (
+          data.synced.slice(0, 10).map((s) => (
             <View key={s.mutationId} style={styles.row}>
               <Text style={styles.flex}>{s.label}</Text>
               <Text variant="small" tone="faint">{s.status} · {timeAgo(s.at)}</Text>
