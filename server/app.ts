@@ -10,6 +10,7 @@ import type { Config } from './config';
 import { errorHandler } from './http/error-handler';
 import { requestLog } from './http/request-log';
 import { registerRouter } from './routes/register';
+import { syncRouter } from './routes/sync';
 
 export interface AppDeps {
   dataSource: DataSource;
@@ -51,9 +52,13 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   });
 
   const sessionPool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 4 });
+  // a full push (500 mutations) can pass 2 MB; its body is read here and skipped by the next parser
+  app.use('/api/sync', express.json({ limit: '5mb' }));
   app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET));
   app.use('/api/auth', authRouter(dataSource, config.SIGN_IN_LIMIT));
   app.use('/api', meRouter(dataSource));
+  // before the register router, whose requireUser would otherwise load the actor a second time
+  app.use('/api/sync', syncRouter(dataSource));
   app.use('/api', registerRouter(dataSource));
   app.use('/api', (_req, res) => {
     res.status(404).json({ error: { code: 'not_found', message: 'No such API route' } });

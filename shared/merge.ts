@@ -113,7 +113,10 @@ export function storedStamp(meta: FieldMeta, unit: readonly string[]): FieldStam
 }
 
 /** A write is concurrent with a stored field when the writer had not seen it and it came from elsewhere. */
-export function isConcurrent(stored: FieldStamp | undefined, write: Pick<FieldWrite, 'device' | 'baseVersion'>): boolean {
+export function isConcurrent(
+  stored: FieldStamp | undefined,
+  write: Pick<FieldWrite, 'device' | 'baseVersion'>,
+): boolean {
   return (
     write.baseVersion !== undefined &&
     stored !== undefined &&
@@ -142,7 +145,9 @@ export function decideWrite(
   const written = Object.keys(write.fields).filter((f) => write.fields[f] !== undefined);
   return unitsOf(written, groups).map((fields) => {
     const stored = storedStamp(meta, fields);
-    const outcome: MergeOutcome = !stored || write.hlc > stored.hlc ? 'apply' : write.hlc === stored.hlc ? 'same' : 'lose';
+    // stamps compare as plain text: time, then counter, then device id (shared/hlc.ts)
+    const outcome: MergeOutcome =
+      !stored || write.hlc > stored.hlc ? 'apply' : write.hlc === stored.hlc ? 'same' : 'lose';
     const concurrent = isConcurrent(stored, write);
     const differs = fields.some((f) => f in write.fields && !sameValue(write.fields[f], row[f]));
     const droppedUnseen =

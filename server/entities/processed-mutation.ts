@@ -1,8 +1,7 @@
-import { Column, CreateDateColumn, Entity, Index, PrimaryColumn } from 'typeorm';
+import { Column, CreateDateColumn, Entity, PrimaryColumn } from 'typeorm';
 
 /** A pushed mutation id with the answer it got, so a replay is answered `duplicate`. */
 @Entity('processed_mutation')
-@Index('ix_processed_mutation_created', ['createdAt'])
 export class ProcessedMutation {
   @PrimaryColumn('text', { name: 'device_id', primaryKeyConstraintName: 'pk_processed_mutation' })
   deviceId: string;

@@ -1,4 +1,5 @@
 import { Column } from 'typeorm';
+import type { FieldMeta } from '../../shared/merge';
 
 /**
  * Columns every synced row carries (SYNC.md): a client-made UUIDv7 id, the hybrid logical clock
@@ -22,7 +23,7 @@ export abstract class SyncColumns {
   @Column('bigint', { default: 0 })
   version: string;
 
-  /** per-field { hlc, version, device } for last-writer-wins merges */
+  /** per-field { hlc, version, device, user } for last-writer-wins merges (shared/merge.ts) */
   @Column('jsonb', { name: 'field_meta', default: () => "'{}'::jsonb" })
-  fieldMeta: Record<string, { hlc: string; version: number; device: string }>;
+  fieldMeta: FieldMeta;
 }

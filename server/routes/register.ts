@@ -23,8 +23,10 @@ export function registerRouter(ds: DataSource): Router {
   const router = Router();
   router.use(requireUser(ds));
 
+  // one transaction and one fresh server stamp per request: the stamp sorts after every stamp
+  // the server has accepted, so a REST write wins the per-field merge like a plain update
   const write = <T>(actor: Actor, fn: (w: register.WriteContext) => Promise<T>) =>
-    ds.transaction((em: EntityManager) => fn({ em, actor, hlc: serverStamp(), device: 'server' }));
+    ds.transaction((em: EntityManager) => fn(register.writeContext(em, actor, serverStamp(), 'server')));
 
   router.get('/buildings', handle({}, async (_i, req) => register.listBuildings(ds.manager, req.actor)));
   router.get(

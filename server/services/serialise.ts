@@ -4,7 +4,8 @@ import type {
   Circuit as CircuitDto,
   Panel as PanelDto,
 } from '../../shared/schemas';
-import type { Building, Circuit, Panel } from '../entities';
+import type { Conflict as ConflictDto } from '../../shared/sync';
+import type { Building, Circuit, ConflictLog, Panel } from '../entities';
 import type { SyncColumns } from '../entities/sync-columns';
 
 function syncColumns(row: SyncColumns) {
@@ -70,5 +71,31 @@ export function circuitDto(c: Circuit): CircuitDto {
     feedsPanelId: c.feedsPanelId,
     handleLock: c.handleLock,
     notes: c.notes,
+  };
+}
+
+/**
+ * A conflict_log row for review. `names` maps user ids to display names, so the device can say who
+ * won and who lost while offline.
+ */
+export function conflictDto(c: ConflictLog, names: ReadonlyMap<string, string>): ConflictDto {
+  return {
+    ...syncColumns(c),
+    buildingId: c.buildingId,
+    entity: c.entity,
+    entityId: c.entityId,
+    field: c.field,
+    winnerValue: c.winnerValue ?? {},
+    loserValue: c.loserValue ?? {},
+    winnerHlc: c.winnerHlc,
+    loserHlc: c.loserHlc,
+    winnerUser: c.winnerUser,
+    loserUser: c.loserUser,
+    winnerUserName: c.winnerUser ? (names.get(c.winnerUser) ?? null) : null,
+    loserUserName: c.loserUser ? (names.get(c.loserUser) ?? null) : null,
+    loserDevice: c.loserDevice,
+    mutationId: c.mutationId,
+    kind: c.kind,
+    resolution: c.resolution,
   };
 }

@@ -1,0 +1,616 @@
+import { In, type DataSource, type EntityManager, type EntityTarget } from 'typeorm';
+import { formatHlc, parseHlc } from '../../shared/hlc';
+import { fieldErrors, type CircuitPatchBody } from '../../shared/schemas';
+import {
+  MUTATION_FIELDS,
+  PULL_PAGE_ROWS,
+  SCHEMA_VERSION,
+  mutationSchema,
+  type BuildingPage,
+  type Mutation,
+  type MutationResult,
+  type PullBody,
+  type PullResponse,
+  type PushResponse,
+  type Resolution,
+} from '../../shared/sync';
+import { roleForBuilding, type Actor } from '../auth/access';
+import { Building, Circuit, ConflictLog, Panel, User } from '../entities';
+import type { SyncColumns } from '../entities/sync-columns';
+import { AppError } from '../http/errors';
+import { logger } from '../logger';
+import { observeStamp, serverStamp } from './clock';
+import { selectRows } from './bulk';
+import * as register from './register';
+import { buildingDto, circuitDto, conflictDto, panelDto } from './serialise';
+
+/**
+ * The server side of offline sync (SYNC.md).
+ *
+ * Push: one transaction. The buildings the mutations name (where the user may edit, and not only
+ * for replayed mutations) are locked in id order and bumped once each before anything is applied,
+ * so every row a push touches in a building carries that one new version: one bump per building
+ * per push, not per mutation (a building whose mutations all get rejected gets an empty version,
+ * which costs nothing). Then each mutation is applied in order in its own savepoint, whose first
+ * statement claims its id in processed_mutation (ON CONFLICT DO NOTHING RETURNING; nothing
+ * returned means a replay, answered from the record as `duplicate`).
+ *
+ * Runs of consecutive `circuit.patch` mutations (the bulk of field work) are one batch in one
+ * savepoint, with a constant number of statements however long the run:
+ * - patches of free fields only (description, notes, load …: no rule ties them to other fields),
+ *   one per circuit, are merged inside one UPDATE statement (register.mergeCircuitPatchesSetwise),
+ *   which hands back every field decision with the stored stamp and old value, so conflicts and
+ *   per-mutation results come from the same shared/merge.ts rule;
+ * - any other run is read under the building locks and merged and validated in memory, in order,
+ *   then written with one UPDATE (register.planCircuitPatches).
+ * Either way one statement then claims all the run's ids with their results. Same per-mutation
+ * results, idempotency and conflicts as the one-by-one path; if a claim is lost (only possible for
+ * an id reused across buildings, since pushes to one building queue on its lock) the batch is
+ * rolled back and planned again, and on a database error it is replayed one mutation per
+ * savepoint.
+ *
+ * Pull: one REPEATABLE READ transaction, so a building's version and its rows come from one
+ * snapshot; a push holds its buildings' row locks until it commits, so the snapshot can only
+ * see whole pushes, in version order, and a cursor never passes a row that commits later.
+ */
+
+/** A stamp further ahead of the server's wall clock than this is re-stamped (SYNC.md). */
+export const MAX_CLOCK_SKEW_MS = 5 * 60 * 1000;
+
+/** The push body after the envelope check (shared/sync.ts pushEnvelope). */
+export interface PushInput {
+  deviceId: string;
+  schemaVersion: number;
+  mutations: Array<{ id: string } & Record<string, unknown>>;
+}
+
+type StoredResult = Omit<MutationResult, 'id'>;
+
+/** A mutation checked against the contract, or the reason it cannot be applied. */
+type Prepared =
+  | { id: string; ok: true; mutation: Mutation; fields: Record<string, unknown> }
+  | { id: string; ok: false; reason: string; fields?: Record<string, string>; name?: unknown };
+
+export function requireSchemaVersion(version: number): void {
+  if (version !== SCHEMA_VERSION) {
+    throw new AppError(
+      409,
+      'schema_version',
+      `This app speaks sync schema ${version}; the server speaks ${SCHEMA_VERSION}. Update the app to sync.`,
+    );
+  }
+}
+
+function zodReason(fields: Record<string, string>): string {
+  return Object.entries(fields)
+    .map(([field, message]) => (field === '_' ? message : `${field}: ${message}`))
+    .join('; ');
+}
+
+const CREATES = new Set(['building.create', 'panel.create', 'circuit.create']);
+
+/** Check one mutation and its fields; nothing here touches the database. */
+function prepare(raw: { id: string } & Record<string, unknown>, deviceId: string): Prepared {
+  const parsed = mutationSchema.safeParse(raw);
+  if (!parsed.success) {
+    const fields = fieldErrors(parsed.error);
+    return { id: raw.id, ok: false, reason: zodReason(fields), fields };
+  }
+  const mutation = parsed.data;
+  if (parseHlc(mutation.hlc).deviceId !== deviceId) {
+    const reason = 'the hlc stamp was not made by this device';
+    return { id: mutation.id, ok: false, reason, fields: { hlc: 'not this device' } };
+  }
+  let input: Record<string, unknown> = mutation.fields;
+  if (CREATES.has(mutation.name)) {
+    if (input.id !== undefined && input.id !== mutation.entityId) {
+      const reason = 'fields.id must be the entityId';
+      return { id: mutation.id, ok: false, reason, fields: { id: 'must be the entityId' } };
+    }
+    // the new row's id is the mutation's entityId, made on the device
+    input = { ...input, id: mutation.entityId };
+  }
+  const fields = MUTATION_FIELDS[mutation.name].safeParse(input);
+  if (!fields.success) {
+    const problems = fieldErrors(fields.error);
+    return { id: mutation.id, ok: false, reason: zodReason(problems), fields: problems };
+  }
+  return { id: mutation.id, ok: true, mutation, fields: fields.data as Record<string, unknown> };
+}
+
+function rejection(error: AppError): StoredResult {
+  const reason = error.fields ? zodReason(error.fields) : error.message;
+  return { status: 'rejected', version: 0, reason, ...(error.fields && { fields: error.fields }) };
+}
+
+/** SQLSTATE classes 22 (data exception) and 23 (integrity constraint): the same input fails every time. */
+function isDeterministicDbError(error: unknown): error is Error & { code: string } {
+  const code = (error as { code?: unknown })?.code;
+  return typeof code === 'string' && (code.startsWith('22') || code.startsWith('23'));
+}
+
+class Push {
+  readonly results: MutationResult[] = [];
+  /** answers recorded so far for this device: before this push, and by it */
+  private readonly known = new Map<string, StoredResult>();
+  readonly versions: register.VersionBook;
+  private readonly now = Date.now();
+
+  constructor(
+    private readonly em: EntityManager,
+    private readonly actor: Actor,
+    private readonly deviceId: string,
+  ) {
+    this.versions = new register.VersionBook(em);
+  }
+
+  /**
+   * The stamp a mutation is applied with: its own, or the server's (keeping the device id, so stamps
+   * stay unique per device) when the device's clock runs more than MAX_CLOCK_SKEW_MS ahead.
+   */
+  private stampFor(mutation: Mutation): string {
+    const skewMs = parseHlc(mutation.hlc).wallMs - this.now;
+    if (skewMs <= MAX_CLOCK_SKEW_MS) return mutation.hlc;
+    const server = parseHlc(serverStamp());
+    const stamp = formatHlc({ ...server, deviceId: this.deviceId });
+    logger.warn(
+      { deviceId: this.deviceId, mutationId: mutation.id, skewMs, stamp: mutation.hlc, restamped: stamp },
+      'device clock ahead of the server: mutation re-stamped',
+    );
+    return stamp;
+  }
+
+  private context(mutation: Mutation): register.WriteContext {
+    return register.writeContext(this.em, this.actor, this.stampFor(mutation), this.deviceId, {
+      versions: this.versions,
+      sync: { mutationId: mutation.id, baseVersion: mutation.baseVersion, buildingId: mutation.buildingId },
+    });
+  }
+
+  private finish(mutation: Mutation, w: register.WriteContext): StoredResult {
+    observeStamp(w.hlc);
+    const conflictIds = w.report.conflictIds;
+    return {
+      status: conflictIds.length > 0 ? 'conflict' : 'applied',
+      version: this.versions.peek(mutation.buildingId) ?? 0,
+      ...(conflictIds.length > 0 && { conflictIds }),
+    };
+  }
+
+  /**
+   * Lock and bump, in id order, the buildings this push may change, skipping mutations answered
+   * before (read before the locks: a batch that then loses a claim re-reads, see batch()).
+   */
+  async lockBuildings(prepared: Prepared[]): Promise<void> {
+    const valid = prepared.filter((p): p is Extract<Prepared, { ok: true }> => p.ok);
+    if (valid.length === 0) return;
+    const done = await this.stored(valid.map((p) => p.id));
+    for (const [id, result] of done) this.known.set(id, result);
+    const replayed = new Set(done.keys());
+    const claimed = [...new Set(valid.filter((p) => !replayed.has(p.id)).map((p) => p.mutation.buildingId))];
+    if (claimed.length === 0) return;
+    // only where this user may write: others' mutations are rejected without touching the building
+    const editorOf = [...this.actor.roles].filter(([, role]) => role === 'admin' || role === 'electrician');
+    await this.versions.lockAll(claimed, editorOf.map(([organisationId]) => organisationId));
+  }
+
+  /** Apply every mutation in order; runs of circuit patches as one batch. */
+  async run(prepared: Prepared[]): Promise<void> {
+    for (let i = 0; i < prepared.length; ) {
+      let end = i;
+      while (end < prepared.length && isCircuitPatch(prepared[end])) end++;
+      if (end - i >= 2) {
+        await this.batch(prepared.slice(i, end));
+        i = end;
+      } else {
+        this.results.push(await this.single(prepared[i]));
+        i++;
+      }
+    }
+  }
+
+  private async claim(ids: string[]): Promise<Set<string>> {
+    // the first statement of every mutation: a replay (or a concurrent push of the same mutation,
+    // which waits here until the other commits) inserts nothing and is answered from the record
+    const rows: { mutation_id: string }[] = await this.em.query(
+      `INSERT INTO processed_mutation (device_id, mutation_id, user_id)
+       SELECT $1, m, $3 FROM unnest($2::uuid[]) AS m
+       ON CONFLICT DO NOTHING RETURNING mutation_id`,
+      [this.deviceId, ids, this.actor.userId],
+    );
+    return new Set(rows.map((r) => r.mutation_id));
+  }
+
+  private async stored(ids: string[]): Promise<Map<string, StoredResult>> {
+    const rows: { mutation_id: string; result: StoredResult | null }[] = await this.em.query(
+      'SELECT mutation_id, result FROM processed_mutation WHERE device_id = $1 AND mutation_id = ANY($2::uuid[])',
+      [this.deviceId, ids],
+    );
+    const pending: StoredResult = { status: 'rejected', version: 0, reason: 'still being processed' };
+    return new Map(rows.map((r) => [r.mutation_id, r.result ?? pending]));
+  }
+
+  private async record(results: { id: string; result: StoredResult }[]): Promise<void> {
+    if (results.length === 0) return;
+    await this.em.query(
+      `UPDATE processed_mutation AS p SET result = v.result
+         FROM jsonb_to_recordset($2::jsonb) AS v(mutation_id uuid, result jsonb)
+        WHERE p.device_id = $1 AND p.mutation_id = v.mutation_id`,
+      [this.deviceId, JSON.stringify(results.map((r) => ({ mutation_id: r.id, result: r.result })))],
+    );
+  }
+
+  private static duplicate(id: string, stored: StoredResult): MutationResult {
+    const { status, ...rest } = stored;
+    return { ...rest, id, status: 'duplicate', originalStatus: status as 'applied' | 'conflict' | 'rejected' };
+  }
+
+  /** One mutation in its own savepoint: claim, apply, record; a rejection rolls the savepoint back. */
+  private async single(p: Prepared): Promise<MutationResult> {
+    const saved = this.versions.entries();
+    await this.em.query('SAVEPOINT m');
+    try {
+      const claimed = await this.claim([p.id]);
+      if (!claimed.has(p.id)) {
+        await this.em.query('RELEASE SAVEPOINT m');
+        return Push.duplicate(p.id, (await this.stored([p.id])).get(p.id)!);
+      }
+      let result: StoredResult;
+      if (!p.ok) {
+        result = { status: 'rejected', version: 0, reason: p.reason, ...(p.fields && { fields: p.fields }) };
+      } else {
+        const w = this.context(p.mutation);
+        await apply(w, p.mutation, p.fields);
+        result = this.finish(p.mutation, w);
+      }
+      await this.record([{ id: p.id, result }]);
+      await this.em.query('RELEASE SAVEPOINT m');
+      this.known.set(p.id, result);
+      return { id: p.id, ...result };
+    } catch (error) {
+      const expected = error instanceof AppError || isDeterministicDbError(error);
+      if (!expected) throw error;
+      await this.em.query('ROLLBACK TO SAVEPOINT m');
+      this.versions.restore(saved);
+      let result: StoredResult;
+      if (error instanceof AppError) {
+        result = rejection(error);
+      } else {
+        logger.warn({ err: error, mutationId: p.id }, 'mutation rejected by the database');
+        result = { status: 'rejected', version: 0, reason: `the change does not fit the stored data (${error.code})` };
+      }
+      // a rejection is final too: record it so a replay gets the same answer
+      await this.em.query(
+        `INSERT INTO processed_mutation (device_id, mutation_id, user_id, result) VALUES ($1, $2, $3, $4)
+         ON CONFLICT DO NOTHING`,
+        [this.deviceId, p.id, this.actor.userId, JSON.stringify(result)],
+      );
+      await this.em.query('RELEASE SAVEPOINT m');
+      this.known.set(p.id, result);
+      return { id: p.id, ...result };
+    }
+  }
+
+  /**
+   * Claim mutation ids and store their results in one statement; returns the ids claimed. Used
+   * by the batch path, which knows every result before it writes anything.
+   */
+  private async claimWithResults(results: { id: string; result: StoredResult }[]): Promise<Set<string>> {
+    if (results.length === 0) return new Set();
+    const rows: { mutation_id: string }[] = await this.em.query(
+      `INSERT INTO processed_mutation (device_id, mutation_id, user_id, result)
+       SELECT $1, v.mutation_id, $2, v.result
+         FROM jsonb_to_recordset($3::jsonb) AS v(mutation_id uuid, result jsonb)
+       ON CONFLICT DO NOTHING RETURNING mutation_id`,
+      [this.deviceId, this.actor.userId, JSON.stringify(results.map((r) => ({ mutation_id: r.id, result: r.result })))],
+    );
+    return new Set(rows.map((r) => r.mutation_id));
+  }
+
+  /**
+   * A run of circuit patches in one savepoint. Should another push claim one of its mutation ids
+   * meanwhile (possible only for an id reused in another building, since pushes to one building
+   * queue on its lock), the batch is rolled back and planned again, which then answers that one
+   * as a duplicate; a database error replays the run one mutation per savepoint.
+   */
+  private async batch(run: Prepared[]): Promise<void> {
+    for (let attempt = 0; attempt < 2; attempt++) {
+      const saved = this.versions.entries();
+      await this.em.query('SAVEPOINT batch');
+      try {
+        const results = await this.batchInSavepoint(run, attempt > 0);
+        if (results) {
+          await this.em.query('RELEASE SAVEPOINT batch');
+          this.results.push(...results);
+          return;
+        }
+      } catch (error) {
+        if (error instanceof AppError) throw error;
+        logger.warn({ err: error, mutations: run.length }, 'circuit patch batch failed: replaying one by one');
+        attempt = 2;
+      }
+      await this.em.query('ROLLBACK TO SAVEPOINT batch');
+      await this.em.query('RELEASE SAVEPOINT batch');
+      this.versions.restore(saved);
+    }
+    for (const p of run) this.results.push(await this.single(p));
+  }
+
+  /**
+   * Read the records of the run's ids, plan every patch in memory, claim the new ids with their
+   * results, then write the rows. The reads before the claim are safe: every writer of these rows
+   * holds the building locks this push took first. Null when a claim was lost to another push.
+   */
+  private async batchInSavepoint(run: Prepared[], reread: boolean): Promise<MutationResult[] | null> {
+    const firstIndex = new Map<string, number>();
+    run.forEach((p, i) => {
+      if (!firstIndex.has(p.id)) firstIndex.set(p.id, i);
+    });
+    const ids = [...firstIndex.keys()];
+    const stored = reread
+      ? await this.stored(ids)
+      : new Map(ids.filter((id) => this.known.has(id)).map((id) => [id, this.known.get(id)!]));
+
+    const answers: (StoredResult | null)[] = run.map(() => null);
+    const work: { index: number; mutation: Mutation; item: register.CircuitPatchItem }[] = [];
+    run.forEach((p, index) => {
+      if (firstIndex.get(p.id) !== index || stored.has(p.id)) return;
+      if (!p.ok) {
+        answers[index] = { status: 'rejected', version: 0, reason: p.reason, ...(p.fields && { fields: p.fields }) };
+        return;
+      }
+      const w = this.context(p.mutation);
+      const item = { w, id: p.mutation.entityId, patch: p.fields as CircuitPatchBody };
+      work.push({ index, mutation: p.mutation, item });
+    });
+    const items = work.map((x) => x.item);
+    // patches of free fields only merge inside one statement; anything else is planned in memory
+    const plan: register.CircuitPatchPlan<unknown> = register.canMergeSetwise(items)
+      ? await register.mergeCircuitPatchesSetwise(items)
+      : await register.planCircuitPatches(items);
+    plan.outcomes.forEach((outcome, k) => {
+      const { index, mutation, item } = work[k];
+      answers[index] = outcome.ok ? this.finish(mutation, item.w) : rejection(outcome.error);
+    });
+    const fresh = run.flatMap((p, index) => {
+      const result = answers[index];
+      return result ? [{ id: p.id, result }] : [];
+    });
+    const claimed = await this.claimWithResults(fresh);
+    if (claimed.size < fresh.length) return null;
+    await plan.persist();
+    for (const { id, result } of fresh) this.known.set(id, result);
+    return run.map((p, index) => {
+      const own = answers[index];
+      if (own) return { id: p.id, ...own };
+      const first = answers[firstIndex.get(p.id)!];
+      return Push.duplicate(p.id, first ?? stored.get(p.id)!);
+    });
+  }
+}
+
+function isCircuitPatch(p: Prepared): boolean {
+  return (p.ok ? p.mutation.name : p.name) === 'circuit.patch';
+}
+
+/** Route one checked mutation to the register service. */
+async function apply(w: register.WriteContext, m: Mutation, fields: Record<string, unknown>): Promise<void> {
+  const f = fields as never;
+  switch (m.name) {
+    case 'building.create':
+      await register.createBuilding(w, f);
+      return;
+    case 'building.patch':
+      await register.patchBuilding(w, m.entityId, f);
+      return;
+    case 'building.delete':
+      await register.deleteBuilding(w, m.entityId);
+      return;
+    case 'building.restore':
+      await register.restoreBuilding(w, m.entityId);
+      return;
+    case 'panel.create':
+      if (m.parentId && m.parentId !== m.buildingId) {
+        throw new AppError(400, 'invalid', 'parentId must be the building id', { parentId: 'must be the building id' });
+      }
+      await register.createPanel(w, m.buildingId, f);
+      return;
+    case 'panel.patch':
+      await register.patchPanel(w, m.entityId, f);
+      return;
+    case 'panel.delete':
+      await register.deletePanel(w, m.entityId);
+      return;
+    case 'panel.restore':
+      await register.restorePanel(w, m.entityId);
+      return;
+    case 'circuit.create':
+      if (!m.parentId) {
+        throw new AppError(400, 'invalid', 'parentId: the panel id is required', { parentId: 'the panel id is required' });
+      }
+      await register.createCircuit(w, m.parentId, f);
+      return;
+    case 'circuit.patch':
+      await register.patchCircuit(w, m.entityId, f);
+      return;
+    case 'circuit.delete':
+      await register.deleteCircuit(w, m.entityId);
+      return;
+    case 'circuit.restore':
+      await register.restoreCircuit(w, m.entityId);
+      return;
+    case 'conflict.resolve':
+      await register.resolveConflict(w, m.entityId, (fields as { resolution: Resolution }).resolution);
+      return;
+  }
+}
+
+/**
+ * Apply a push inside the caller's transaction (tests hold one open to prove the cursor rule).
+ * The envelope must already be checked (pushEnvelope); every mutation gets a result.
+ */
+export async function applyPush(em: EntityManager, actor: Actor, input: PushInput): Promise<PushResponse> {
+  requireSchemaVersion(input.schemaVersion);
+  const prepared = input.mutations.map((raw): Prepared => {
+    const p = prepare(raw, input.deviceId);
+    // keep the name of a malformed mutation so it still falls in the batch where it stood
+    return p.ok ? p : { ...p, name: raw.name };
+  });
+  const push = new Push(em, actor, input.deviceId);
+  await push.lockBuildings(prepared);
+  await push.run(prepared);
+  return { serverHlc: serverStamp(), results: push.results };
+}
+
+/** `POST /api/sync/push`: one transaction for the whole batch. */
+export function push(ds: DataSource, actor: Actor, input: PushInput): Promise<PushResponse> {
+  requireSchemaVersion(input.schemaVersion);
+  return ds.transaction((em) => applyPush(em, actor, input));
+}
+
+// ---------- pull ----------
+
+const emptyPage = (buildingId: string, toVersion: number, hasMore: boolean): BuildingPage => ({
+  buildingId,
+  reset: false,
+  toVersion,
+  hasMore,
+  building: null,
+  upserts: { panels: [], circuits: [], conflicts: [] },
+  tombstones: { panels: [], circuits: [] },
+});
+
+type PulledTable = 'panel' | 'circuit' | 'conflict_log';
+
+/**
+ * Rows of one page ($1 building, $2 cursor, $3 last version): past the cursor, up to a version; a
+ * snapshot holds live rows only.
+ */
+function rangeWhere(table: PulledTable, snapshot: boolean): string {
+  const live = snapshot ? ' AND deleted_at IS NULL' : '';
+  // a snapshot leaves resolved conflicts out: they no longer need review
+  const open = snapshot && table === 'conflict_log' ? ' AND resolution IS NULL' : '';
+  return `building_id = $1 AND version > $2 AND version <= $3${live}${open}`;
+}
+
+function rangeSql(table: PulledTable, snapshot: boolean): string {
+  return `FROM ${table} WHERE ${rangeWhere(table, snapshot)}`;
+}
+
+/**
+ * The last version of a page holding at most `budget` rows past `since`, never splitting a version
+ * (a single version larger than the budget is sent whole); null when everything fits.
+ */
+async function pageEnd(
+  em: EntityManager,
+  buildingId: string,
+  since: number,
+  upTo: number,
+  snapshot: boolean,
+  budget: number,
+): Promise<number | null> {
+  const tables = ['panel', 'circuit', 'conflict_log'] as const;
+  const [{ n }]: { n: string }[] = await em.query(
+    `SELECT (${tables.map((t) => `(SELECT count(*) ${rangeSql(t, snapshot)})`).join(' + ')}) AS n`,
+    [buildingId, since, upTo],
+  );
+  if (Number(n) <= budget) return null;
+  const histogram: { version: string; n: string }[] = await em.query(
+    `SELECT version, sum(n) AS n FROM (
+       ${tables.map((t) => `SELECT version, count(*) AS n ${rangeSql(t, snapshot)} GROUP BY version`).join('\n UNION ALL ')}
+     ) AS per_table GROUP BY version ORDER BY version`,
+    [buildingId, since, upTo],
+  );
+  let total = 0;
+  let end: number | null = null;
+  for (const row of histogram) {
+    if (end !== null && total + Number(row.n) > budget) return end;
+    total += Number(row.n);
+    end = Number(row.version);
+  }
+  return null;
+}
+
+async function userNames(em: EntityManager, conflicts: ConflictLog[]): Promise<Map<string, string>> {
+  const ids = [...new Set(conflicts.flatMap((c) => [c.winnerUser, c.loserUser]).filter((u): u is string => !!u))];
+  if (ids.length === 0) return new Map();
+  const users = await em.find(User, { where: { id: In(ids) } });
+  return new Map(users.map((u) => [u.id, u.name]));
+}
+
+async function buildingPage(
+  em: EntityManager,
+  actor: Actor,
+  building: Building,
+  cursor: number,
+  budget: number,
+): Promise<{ page: BuildingPage; rows: number }> {
+  const version = Number(building.version);
+  const reset = cursor > version;
+  const since = reset ? 0 : cursor;
+  if (since === version) return { page: emptyPage(building.id, version, false), rows: 0 };
+  const snapshot = since === 0;
+  const end = await pageEnd(em, building.id, since, version, snapshot, budget);
+  const upTo = end ?? version;
+  // field_meta stays on the server: it is larger than the rest of a circuit, and no device needs it
+  const read = <T extends SyncColumns>(entity: EntityTarget<T>, table: PulledTable) =>
+    selectRows(em, entity, rangeWhere(table, snapshot), [building.id, since, upTo], { without: ['fieldMeta'] });
+  const panels = await read(Panel, 'panel');
+  const circuits = await read(Circuit, 'circuit');
+  const conflicts = await read(ConflictLog, 'conflict_log');
+  const counts = await register.panelCounts(em, [building.id]);
+  const names = await userNames(em, conflicts);
+  const role = roleForBuilding(actor, building)!;
+  const page: BuildingPage = {
+    buildingId: building.id,
+    reset,
+    toVersion: upTo,
+    hasMore: end !== null,
+    building: buildingDto(building, role, counts.get(building.id) ?? 0),
+    upserts: {
+      panels: panels.filter((p) => !p.deletedAt).map(panelDto),
+      circuits: circuits.filter((c) => !c.deletedAt).map(circuitDto),
+      conflicts: conflicts.map((c) => conflictDto(c, names)),
+    },
+    tombstones: {
+      panels: panels.filter((p) => p.deletedAt).map((p) => p.id),
+      circuits: circuits.filter((c) => c.deletedAt).map((c) => c.id),
+    },
+  };
+  return { page, rows: panels.length + circuits.length + conflicts.length };
+}
+
+/**
+ * `POST /api/sync/pull`: for each building the user may see, the changes past the device's cursor
+ * (a full snapshot without one, or with a cursor the server never issued), at most PULL_PAGE_ROWS
+ * rows per response, cut at version boundaries; and the buildings the device must forget.
+ */
+export async function pull(ds: DataSource, actor: Actor, body: PullBody): Promise<PullResponse> {
+  requireSchemaVersion(body.schemaVersion);
+  return ds.transaction('REPEATABLE READ', async (em) => {
+    const orgIds = [...actor.roles.keys()];
+    const all = orgIds.length
+      ? await em.find(Building, { where: { organisationId: In(orgIds) }, order: { id: 'ASC' } })
+      : [];
+    // a deleted building is news only to a device that has it
+    const visible = all.filter(
+      (b) => roleForBuilding(actor, b) !== null && (!b.deletedAt || (body.cursors[b.id] ?? 0) > 0),
+    );
+    const visibleIds = new Set(all.filter((b) => roleForBuilding(actor, b) !== null).map((b) => b.id));
+    const revoked = Object.keys(body.cursors).filter((id) => !visibleIds.has(id));
+    const buildings: BuildingPage[] = [];
+    let budget = PULL_PAGE_ROWS;
+    for (const building of visible) {
+      const cursor = body.cursors[building.id] ?? 0;
+      if (budget <= 0) {
+        // the response is full: the device pulls again at once (hasMore) with this cursor unchanged
+        buildings.push(emptyPage(building.id, cursor, true));
+        continue;
+      }
+      const { page, rows } = await buildingPage(em, actor, building, cursor, budget);
+      buildings.push(page);
+      budget -= rows;
+    }
+    return { serverHlc: serverStamp(), revoked, buildings };
+  });
+}
