@@ -5,7 +5,7 @@ import { SplashScreen, Stack } from 'expo-router';
 import { StatusBar } from 'expo-status-bar';
 import { useEffect, useMemo, useState } from 'react';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
-import { ErrorState, LoadingState } from '@/components/states';
+import { EmptyState, ErrorState, LoadingState } from '@/components/states';
 import { SyncStatus } from '@/components/sync-status';
 import { colours, fonts } from '@/components/theme';
 import { AccountContext, useSession, type Account } from '@/hooks/use-session';
@@ -15,6 +15,7 @@ import { kv } from '@/lib/storage';
 import { deviceId, loadDevice } from '@/lib/device';
 import { registerOfflineShell } from '@/lib/offline-shell';
 import { installOnlineDetection } from '@/lib/online';
+import { waitForOutboxLock } from '@/lib/tab-lock';
 import { makeQueryClient } from '@/lib/query-client';
 import { configureSync, resumeOutbox } from '@/lib/sync';
 import { SCHEMA_VERSION } from '@/shared/sync';
@@ -79,8 +80,29 @@ const dehydrateOptions = {
   shouldDehydrateMutation: (m: { state: { status: string } }) => m.state.status === 'pending',
 };
 
-/** One signed-in user's persisted cache and outbox. */
+/** Only the tab holding the user's outbox lock mounts their cache (lib/tab-lock.web.ts). */
 function UserCache({ userId }: { userId: string }) {
+  const [owner, setOwner] = useState(false);
+  const [waitedLong, setWaitedLong] = useState(false);
+  useEffect(() => {
+    waitForOutboxLock(userId, () => setOwner(true));
+    const timer = setTimeout(() => setWaitedLong(true), 1500);
+    return () => clearTimeout(timer);
+  }, [userId]);
+  if (!owner && !waitedLong) return <LoadingState what="Ampwright" />;
+  if (!owner) {
+    return (
+      <EmptyState
+        title="Open in another tab"
+        hint="Ampwright is already open in another tab or window of this browser. Use that one, so the changes on this device are sent once and in order. This page opens by itself when the other one is closed."
+      />
+    );
+  }
+  return <OwnedUserCache userId={userId} />;
+}
+
+/** One signed-in user's persisted cache and outbox. */
+function OwnedUserCache({ userId }: { userId: string }) {
   const [{ client, persister }] = useState(() => {
     const queryClient = makeQueryClient();
     // before the restore: restored mutations find their function and scope in these defaults

@@ -267,3 +267,15 @@ test('when the device is out of storage the user is warned and the queue survive
   expect((await circuitText('LC-1', 5)).description).toBe(text);
   await context.close();
 });
+
+test('one tab syncs at a time: a second tab of the same browser is sent to the first', async ({ browser }) => {
+  const { context, page } = await device(browser);
+  const second = await context.newPage();
+  await second.goto('/');
+  await expect(second.getByText('Open in another tab', { exact: true })).toBeVisible();
+  await expect(page.getByText('Brackenfold Family Clinic')).toBeVisible();
+  // when the first tab closes, the second takes over by itself
+  await page.close();
+  await expect(second.getByText('Brackenfold Family Clinic')).toBeVisible();
+  await context.close();
+});
