@@ -55,17 +55,7 @@ export function replicaGate(
   return null;
 }
 
-/** A thin strip over data shown from cache after a failed refresh. */
-export function StaleBanner({ error }: { error: unknown }) {
-  return (
-    <View style={styles.banner} accessibilityRole="alert">
-      <Text variant="small">Showing what was loaded earlier. {describeError(error)}</Text>
-    </View>
-  );
-}
-
 const styles = StyleSheet.create({
   centre: { flex: 1, alignItems: 'center', justifyContent: 'center', padding: space.xl, gap: space.md },
   text: { textAlign: 'center', maxWidth: 420 },
-  banner: { backgroundColor: colours.warnSoft, padding: space.sm, paddingHorizontal: space.lg },
 });
