@@ -185,6 +185,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
 
   return (
     <View style={styles.form}>
+      <CircuitWarningsBox warnings={warnings} />
       <TextField
         label="Directory description"
         value={draft.description}
@@ -305,7 +306,6 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
       )}
       <TextField label="Notes" value={draft.notes} onChangeText={set('notes')} multiline error={errors.notes} />
 
-      <CircuitWarningsBox warnings={warnings} />
       {Object.keys(errors).length > 0 && (
         <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
       )}

@@ -40,13 +40,14 @@ export default function PanelScreen() {
   ].filter(Boolean);
   return (
     <>
-      <Stack.Screen options={{ title: `${panel.tag} · ${building.name}` }} />
+      <Stack.Screen options={{ title: `Panel ${panel.tag}` }} />
       <Screen wide>
         <View style={styles.head}>
           <View style={styles.tag}>
             <Text variant="title" tone="paper" style={styles.tagText}>{panel.tag}</Text>
           </View>
           <View style={styles.headText}>
+            <Text variant="small" tone="soft">{building.name}</Text>
             <Text variant="strong">{panel.location || 'Location not recorded'}</Text>
             <Text variant="small" tone="soft">{facts.join(' · ')}</Text>
             {(panel.maker || panel.model) && (
