@@ -24,6 +24,7 @@ suite() { # suite NAME COMMAND...: run one suite, remember how it went
 }
 
 suite "type check (client and server)" bash -c 'tsc --noEmit -p . && tsc --noEmit -p server'
+suite "lint (eslint)" eslint .
 
 pg_up test "$TEST_PG_PORT" fresh
 export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"

@@ -53,7 +53,7 @@ export async function seedDemo(ds: DataSource): Promise<boolean> {
         (x, y) => depth(b.panels, x.key) - depth(b.panels, y.key),
       );
       for (const p of ordered) {
-        const { key, circuits, fedFromPanelKey, ...fields } = p;
+        const { key, circuits: _circuits, fedFromPanelKey, ...fields } = p;
         await em.insert(Panel, {
           id: panelIds.get(key)!,
           buildingId,
