@@ -56,10 +56,10 @@ export function tripBand(points: readonly TripBandPoint[], multiple: number): Tr
       // clamp guards the last bit of floating-point error so the result never leaves the band
       const clamp = (v: number, a: number, b: number): number =>
         Math.min(Math.max(v, Math.min(a, b)), Math.max(a, b));
-      return {
-        minS: clamp(logLerp(lo.minS, hi.minS), lo.minS, hi.minS),
-        maxS: clamp(logLerp(lo.maxS, hi.maxS), lo.maxS, hi.maxS),
-      };
+      const minS = clamp(logLerp(lo.minS, hi.minS), lo.minS, hi.minS);
+      // min ≤ max holds at both points, so it holds between them; rounding must not undo that
+      const maxS = Math.max(minS, clamp(logLerp(lo.maxS, hi.maxS), lo.maxS, hi.maxS));
+      return { minS, maxS };
     }
   }
   return null;

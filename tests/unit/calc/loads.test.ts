@@ -212,7 +212,9 @@ describe('panelLoad — phase loading by standard numbering [CP]; 125 % continuo
   const circuitArb = fc.record({
     position: fc.integer({ min: 1, max: 42 }),
     poles: fc.integer({ min: 1, max: 3 }),
-    loadVA: fc.double({ min: 0, max: 20_000, noNaN: true }),
+    // nothing, or at least 1 VA: sub-VA loads (down to subnormal doubles) are no schedule entry
+    // and only test floating-point underflow
+    loadVA: fc.oneof(fc.constant(0), fc.double({ min: 1, max: 20_000, noNaN: true })),
     continuous: fc.boolean(),
     loadKind: fc.constantFrom<LoadKind>('lighting', 'receptacles', 'motor'),
   });
