@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { circuitWarnings, occupiedPositions, panelLayout, phaseOf, positionClash, type CircuitWarning } from '@/shared/calc';
 import {
@@ -20,6 +19,7 @@ import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-
 import { ChoiceField, ReadOnlyField, TextField, ToggleField } from './fields';
 import { changedFields, numberOrNull, textOf } from './form-values';
 import { Text } from './text';
+import { useFormDraft } from './use-form-draft';
 import { colours, radii, space } from './theme';
 
 export const BREAKER_TYPE_LABELS: Record<BreakerType, string> = {
@@ -150,12 +150,7 @@ export interface CircuitFormProps {
 }
 
 export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete }: CircuitFormProps) {
-  const [draft, setDraft] = useState<Draft>(() => toDraft(initial));
-  const [errors, setLocalErrors] = useState<Record<string, string>>({});
-  const set = <K extends keyof Draft>(key: K) => (value: Draft[K]) => {
-    setDraft((d) => ({ ...d, [key]: value }));
-    setLocalErrors(({ [key]: _dropped, ...rest }) => rest);
-  };
+  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => toDraft(initial));
   const threePhase = SYSTEM_INFO[panel.system].phases === 3;
   const isSpace = draft.status === 'space';
 
@@ -163,15 +158,15 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
     const candidate = fromDraft(draft, initial);
     const parsed = circuitCreateBody.safeParse(candidate);
     if (!parsed.success) {
-      setLocalErrors(fieldErrors(parsed.error));
+      setErrors(fieldErrors(parsed.error));
       return;
     }
     const layoutErrors = layoutProblems(panel, others, { id: initial.id ?? '', ...parsed.data });
     if (Object.keys(layoutErrors).length > 0) {
-      setLocalErrors(layoutErrors);
+      setErrors(layoutErrors);
       return;
     }
-    setLocalErrors({});
+    setErrors({});
     onSubmit(isNew ? parsed.data : changedFields(initial, parsed.data));
   };
 

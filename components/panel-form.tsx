@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type PanelKind, type PanelSystem } from '@/shared/domain';
 import { panelLayout } from '@/shared/calc';
@@ -7,6 +6,7 @@ import { Button } from './button';
 import { ChoiceField, TextField } from './fields';
 import { changedFields, numberOrNull, textOf } from './form-values';
 import { Text } from './text';
+import { useFormDraft } from './use-form-draft';
 import { space } from './theme';
 
 const KIND_LABELS: Record<PanelKind, string> = {
@@ -23,7 +23,7 @@ export interface PanelFormProps {
 }
 
 export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
-  const [draft, setDraft] = useState({
+  const { draft, set, errors, setErrors } = useFormDraft(() => ({
     tag: panel.tag,
     location: panel.location,
     kind: panel.kind,
@@ -36,12 +36,7 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
     model: panel.model,
     installedOn: panel.installedOn ?? '',
     condition: panel.condition,
-  });
-  const [errors, setLocalErrors] = useState<Record<string, string>>({});
-  const set = <K extends keyof typeof draft>(key: K) => (value: (typeof draft)[K]) => {
-    setDraft((d) => ({ ...d, [key]: value }));
-    setLocalErrors(({ [key]: _dropped, ...rest }) => rest);
-  };
+  }));
 
   const submit = () => {
     const candidate = {
@@ -56,13 +51,13 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
     };
     const parsed = panelCreateBody.safeParse(candidate);
     if (!parsed.success) {
-      setLocalErrors(fieldErrors(parsed.error));
+      setErrors(fieldErrors(parsed.error));
       return;
     }
     const { id: _id, ...fields } = parsed.data;
     const { problems } = panelLayout({ system: fields.system, spaces: fields.spaces }, circuits);
     if (problems.length > 0) {
-      setLocalErrors({ spaces: `existing circuits would not fit: ${problems[0].message}` });
+      setErrors({ spaces: `existing circuits would not fit: ${problems[0].message}` });
       return;
     }
     onSubmit(changedFields(panel, fields));

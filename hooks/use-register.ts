@@ -49,7 +49,7 @@ export function findPanel(r: Replica, panelId: string) {
     const panel = copy.panels[panelId];
     if (panel) {
       const circuits = Object.values(copy.circuits).filter((c) => c.panelId === panelId).sort(byPosition);
-      return { panel, building: copy.building, circuits, panels: Object.values(copy.panels).sort(byTag) };
+      return { panel, building: copy.building, circuits };
     }
   }
   return null;
