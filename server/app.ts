@@ -9,6 +9,7 @@ import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
 import { errorHandler } from './http/error-handler';
 import { requestLog } from './http/request-log';
+import { recordsRouter } from './routes/records';
 import { registerRouter } from './routes/register';
 import { syncRouter } from './routes/sync';
 
@@ -60,6 +61,7 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   // before the register router, whose requireUser would otherwise load the actor a second time
   app.use('/api/sync', syncRouter(dataSource));
   app.use('/api', registerRouter(dataSource));
+  app.use('/api', recordsRouter(dataSource));
   app.use('/api', (_req, res) => {
     res.status(404).json({ error: { code: 'not_found', message: 'No such API route' } });
   });

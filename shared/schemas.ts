@@ -58,6 +58,13 @@ export const membershipSchema = z.object({
   organisationId: z.string(),
   organisationName: z.string(),
   role: z.enum(ROLES),
+  /** the organisation's settings (due days by priority, photo location policy) */
+  settings: z.object({
+    dueDays: z.object({ 1: z.number(), 2: z.number(), 3: z.number(), 4: z.number() }),
+    keepPhotoLocation: z.boolean(),
+  }),
+  /** everyone in the organisation, for assigning work */
+  people: z.array(z.object({ id: z.string(), name: z.string(), role: z.enum(ROLES) })),
 });
 export type Membership = z.infer<typeof membershipSchema>;
 
@@ -197,6 +204,8 @@ const circuitFieldsBase = z.object({
   feedsPanelId: idSchema.nullable(),
   handleLock: z.boolean(),
   notes: text(2000),
+  /** the time-current band of the organisation's library its trip tests are judged against */
+  bandId: idSchema.nullable(),
 });
 
 /**
@@ -240,6 +249,7 @@ export const circuitCreateBody = circuitFieldsBase
     feedsPanelId: circuitShape.feedsPanelId.default(null),
     handleLock: circuitShape.handleLock.default(false),
     notes: circuitShape.notes.default(''),
+    bandId: circuitShape.bandId.default(null),
   })
   .superRefine(circuitCrossChecks);
 export const circuitPatchBody = circuitFieldsBase.partial().strict();
@@ -266,6 +276,7 @@ export const circuitSchema = z.object({
   feedsPanelId: z.string().nullable(),
   handleLock: z.boolean(),
   notes: z.string(),
+  bandId: z.string().nullable(),
 });
 export type Circuit = z.infer<typeof circuitSchema>;
 

@@ -17,6 +17,25 @@ import {
   panelSchema,
   syncColumns,
 } from './schemas';
+import {
+  commentCreateBody,
+  deficiencyCreateBody,
+  deficiencyEntrySchema,
+  deficiencyPatchBody,
+  deficiencySchema,
+  inspectionCreateBody,
+  inspectionPatchBody,
+  inspectionSchema,
+  photoCreateBody,
+  photoPatchBody,
+  photoSchema,
+  readingCreateBody,
+  readingPatchBody,
+  readingSchema,
+  tripCreateBody,
+  tripEventSchema,
+  tripPatchBody,
+} from './records';
 
 /**
  * Version of the sync wire format and of the persisted client cache built from it. A client on
@@ -45,6 +64,23 @@ export const MUTATION_NAMES = [
   'circuit.delete',
   'circuit.restore',
   'conflict.resolve',
+  'inspection.create',
+  'inspection.patch',
+  'inspection.delete',
+  'inspection.sign',
+  'reading.create',
+  'reading.patch',
+  'reading.delete',
+  'deficiency.create',
+  'deficiency.patch',
+  'deficiency.delete',
+  'comment.create',
+  'trip.create',
+  'trip.patch',
+  'trip.delete',
+  'photo.create',
+  'photo.patch',
+  'photo.delete',
 ] as const;
 export type MutationName = (typeof MUTATION_NAMES)[number];
 
@@ -81,6 +117,23 @@ export const MUTATION_FIELDS: Record<MutationName, z.ZodType> = {
   'circuit.delete': noFields,
   'circuit.restore': noFields,
   'conflict.resolve': z.object({ resolution: z.enum(RESOLUTIONS, { error: 'kept_theirs or restored_mine' }) }).strict(),
+  'inspection.create': inspectionCreateBody,
+  'inspection.patch': inspectionPatchBody,
+  'inspection.delete': noFields,
+  'inspection.sign': noFields,
+  'reading.create': readingCreateBody,
+  'reading.patch': readingPatchBody,
+  'reading.delete': noFields,
+  'deficiency.create': deficiencyCreateBody,
+  'deficiency.patch': deficiencyPatchBody,
+  'deficiency.delete': noFields,
+  'comment.create': commentCreateBody,
+  'trip.create': tripCreateBody,
+  'trip.patch': tripPatchBody,
+  'trip.delete': noFields,
+  'photo.create': photoCreateBody,
+  'photo.patch': photoPatchBody,
+  'photo.delete': noFields,
 };
 
 /** One queued change, made on the device. */
@@ -166,7 +219,15 @@ export const pullBody = z.object({
 });
 export type PullBody = z.infer<typeof pullBody>;
 
-export const CONFLICT_ENTITIES = ['building', 'panel', 'circuit'] as const;
+export const CONFLICT_ENTITIES = ['building', 'panel', 'circuit', 'inspection', 'reading', 'deficiency', 'trip', 'photo'] as const;
+export type ConflictEntity = (typeof CONFLICT_ENTITIES)[number];
+
+/**
+ * The condition-record tables a pull carries besides panels and circuits, by the name of their
+ * list in a page (upserts and tombstones use the same names).
+ */
+export const RECORD_LISTS = ['inspections', 'readings', 'deficiencies', 'entries', 'trips', 'photos'] as const;
+export type RecordList = (typeof RECORD_LISTS)[number];
 export const CONFLICT_KINDS = ['concurrent', 'edited_after_delete'] as const;
 
 /** A losing write kept for review ("needs review"); synced down like any row, never deleted. */
@@ -214,11 +275,23 @@ export const buildingPageSchema = z.object({
     panels: z.array(panelSchema),
     circuits: z.array(circuitSchema),
     conflicts: z.array(conflictSchema),
+    inspections: z.array(inspectionSchema),
+    readings: z.array(readingSchema),
+    deficiencies: z.array(deficiencySchema),
+    entries: z.array(deficiencyEntrySchema),
+    trips: z.array(tripEventSchema),
+    photos: z.array(photoSchema),
   }),
   /** ids deleted since the cursor (empty in a snapshot, which holds live rows only) */
   tombstones: z.object({
     panels: z.array(z.string()),
     circuits: z.array(z.string()),
+    inspections: z.array(z.string()),
+    readings: z.array(z.string()),
+    deficiencies: z.array(z.string()),
+    entries: z.array(z.string()),
+    trips: z.array(z.string()),
+    photos: z.array(z.string()),
   }),
 });
 export type BuildingPage = z.infer<typeof buildingPageSchema>;

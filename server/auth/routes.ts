@@ -4,6 +4,8 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { DataSource } from 'typeorm';
 import { signInBody, type MeResponse } from '../../shared/schemas';
 import { Membership, Organisation, User } from '../entities';
+import type { Role } from '../../shared/domain';
+import { DEFAULT_SETTINGS, type OrganisationSettings } from '../../shared/records';
 import { AppError, UnauthorisedError } from '../http/errors';
 import { handle } from '../http/handle';
 import { requireUser } from './session';
@@ -17,11 +19,33 @@ async function describeUser(ds: DataSource, userId: string): Promise<MeResponse>
   const memberships = await ds.manager
     .createQueryBuilder(Membership, 'm')
     .innerJoin(Organisation, 'o', 'o.id = m.organisation_id')
-    .select(['m.organisation_id AS "organisationId"', 'o.name AS "organisationName"', 'm.role AS role'])
+    .select([
+      'm.organisation_id AS "organisationId"',
+      'o.name AS "organisationName"',
+      'm.role AS role',
+      'o.settings AS settings',
+    ])
     .where('m.user_id = :userId', { userId })
     .orderBy('o.name')
-    .getRawMany<MeResponse['memberships'][number]>();
-  return { user: { id: user.id, email: user.email, name: user.name }, memberships };
+    .getRawMany<Omit<MeResponse['memberships'][number], 'people'> & { settings: Partial<OrganisationSettings> }>();
+  const orgIds = memberships.map((m) => m.organisationId);
+  // the people of each organisation, so a deficiency can be assigned on a device with no signal
+  const people: { organisationId: string; id: string; name: string; role: Role }[] = orgIds.length
+    ? await ds.query(
+        `SELECT m.organisation_id AS "organisationId", u.id, u.name, m.role
+           FROM membership m JOIN app_user u ON u.id = m.user_id
+          WHERE m.organisation_id = ANY($1::uuid[]) ORDER BY u.name`,
+        [orgIds],
+      )
+    : [];
+  return {
+    user: { id: user.id, email: user.email, name: user.name },
+    memberships: memberships.map((m) => ({
+      ...m,
+      settings: { ...DEFAULT_SETTINGS, ...m.settings, dueDays: { ...DEFAULT_SETTINGS.dueDays, ...m.settings?.dueDays } },
+      people: people.filter((p) => p.organisationId === m.organisationId).map(({ id, name, role }) => ({ id, name, role })),
+    })),
+  };
 }
 
 function regenerate(req: Request): Promise<void> {

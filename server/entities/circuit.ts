@@ -68,4 +68,8 @@ export class Circuit extends SyncColumns {
 
   @Column('text', { default: '' })
   notes: string;
+
+  /** the time-current band (organisation library) its trip tests are judged against */
+  @Column('uuid', { name: 'band_id', nullable: true })
+  bandId: string | null;
 }

@@ -1,4 +1,5 @@
 import { Column, Entity, Index } from 'typeorm';
+import type { ConflictEntity } from '../../shared/sync';
 import { SyncColumns } from './sync-columns';
 
 /**
@@ -13,7 +14,7 @@ export class ConflictLog extends SyncColumns {
   buildingId: string;
 
   @Column('text')
-  entity: 'building' | 'panel' | 'circuit';
+  entity: ConflictEntity;
 
   @Column('uuid', { name: 'entity_id' })
   entityId: string;

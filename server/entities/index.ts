@@ -1,14 +1,38 @@
 import { Building } from './building';
 import { Circuit } from './circuit';
 import { ConflictLog } from './conflict-log';
+import { CurveBand } from './curve-band';
+import { Deficiency } from './deficiency';
+import { DeficiencyEntry } from './deficiency-entry';
+import { Inspection } from './inspection';
 import { Membership } from './membership';
 import { Organisation } from './organisation';
 import { OwnerGrant } from './owner-grant';
 import { Panel } from './panel';
+import { Photo } from './photo';
 import { ProcessedMutation } from './processed-mutation';
+import { Reading } from './reading';
+import { TripEvent } from './trip-event';
 import { User } from './user';
 
-export { Building, Circuit, ConflictLog, Membership, Organisation, OwnerGrant, Panel, ProcessedMutation, User };
+export {
+  Building,
+  Circuit,
+  ConflictLog,
+  CurveBand,
+  Deficiency,
+  DeficiencyEntry,
+  Inspection,
+  Membership,
+  Organisation,
+  OwnerGrant,
+  Panel,
+  Photo,
+  ProcessedMutation,
+  Reading,
+  TripEvent,
+  User,
+};
 export const entities = [
   Organisation,
   User,
@@ -19,4 +43,11 @@ export const entities = [
   Circuit,
   ConflictLog,
   ProcessedMutation,
+  CurveBand,
+  Inspection,
+  Reading,
+  Deficiency,
+  DeficiencyEntry,
+  TripEvent,
+  Photo,
 ];

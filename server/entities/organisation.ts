@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryColumn } from 'typeorm';
+import type { OrganisationSettings } from '../../shared/records';
 
 @Entity('organisation')
 export class Organisation {
@@ -7,6 +8,10 @@ export class Organisation {
 
   @Column('text')
   name: string;
+
+  /** due days by priority, photo location policy; missing keys take DEFAULT_SETTINGS */
+  @Column('jsonb', { default: () => "'{}'::jsonb" })
+  settings: Partial<OrganisationSettings>;
 
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt: Date;

@@ -1,4 +1,4 @@
-import { In, IsNull, type EntityManager, type FindOptionsWhere } from 'typeorm';
+import { In, IsNull, type EntityManager, type EntityTarget, type FindOptionsWhere } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
 import { occupiedPositions, panelLayout } from '../../shared/calc';
 import { SYSTEM_INFO, type Role } from '../../shared/domain';
@@ -171,7 +171,7 @@ export class VersionBook {
 // ---------- conflicts ----------
 
 type ConflictEntity = ConflictLog['entity'];
-interface Target {
+export interface Target {
   entity: ConflictEntity;
   buildingId: string;
 }
@@ -181,7 +181,7 @@ interface Side {
   user: string | null;
   device: string;
 }
-interface ConflictDraft extends Target {
+export interface ConflictDraft extends Target {
   /** assigned when the conflict is reported to its write (reportConflicts) */
   id?: string;
   w: WriteContext;
@@ -193,7 +193,7 @@ interface ConflictDraft extends Target {
 }
 
 /** Field values as JSON (dates as ISO text), only the named fields. */
-function jsonValues(source: Record<string, unknown>, fields: readonly string[]): Record<string, unknown> {
+export function jsonValues(source: Record<string, unknown>, fields: readonly string[]): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const f of fields) {
     if (!(f in source)) continue;
@@ -204,7 +204,7 @@ function jsonValues(source: Record<string, unknown>, fields: readonly string[]):
 }
 
 /** Give each conflict its id and tell its write, before anything is stored (a push records results first). */
-function reportConflicts(drafts: readonly ConflictDraft[]): void {
+export function reportConflicts(drafts: readonly ConflictDraft[]): void {
   for (const d of drafts) {
     if (d.id) continue;
     d.id = uuidv7();
@@ -213,7 +213,7 @@ function reportConflicts(drafts: readonly ConflictDraft[]): void {
 }
 
 /** Write conflict_log rows (one statement), reporting any not reported yet. */
-async function insertConflicts(em: EntityManager, drafts: readonly ConflictDraft[]): Promise<void> {
+export async function insertConflicts(em: EntityManager, drafts: readonly ConflictDraft[]): Promise<void> {
   if (drafts.length === 0) return;
   reportConflicts(drafts);
   const rows: ConflictLog[] = [];
@@ -270,7 +270,7 @@ function concurrentDraft(
 }
 
 /** An edit that reached a tombstoned row: kept only in the log, the tombstone stands. */
-function editedAfterDelete(
+export function editedAfterDelete(
   row: SyncColumns,
   fields: Record<string, unknown>,
   w: WriteContext,
@@ -333,7 +333,7 @@ interface MergePlan<T> {
 }
 
 /** Decide a write against a row without changing it (validate `candidate`, then commitMerge). */
-function planMerge<T extends SyncColumns>(
+export function planMerge<T extends SyncColumns>(
   row: T,
   fields: Record<string, unknown>,
   w: WriteContext,
@@ -355,7 +355,7 @@ function planMerge<T extends SyncColumns>(
  * Apply a planned merge: winning fields and their stamps, the row's version (always, so the next
  * pull re-sends the truth to a device whose optimistic value lost), and the conflicts to log.
  */
-function commitMerge<T extends SyncColumns>(
+export function commitMerge<T extends SyncColumns>(
   row: T,
   plan: MergePlan<T>,
   w: WriteContext,
@@ -409,7 +409,7 @@ async function visiblePanel(em: EntityManager, actor: Actor, id: string) {
  * A building for a write, tombstoned or not (a sync edit of a deleted row is a conflict, not an
  * error). Not visible, or not the building the mutation names: not found.
  */
-async function writableBuilding(w: WriteContext, id: string, what: string) {
+export async function writableBuilding(w: WriteContext, id: string, what: string) {
   const building = await w.em.findOne(Building, { where: { id } });
   const role = building && roleForBuilding(w.actor, building);
   if (!building || !role || (w.sync && w.sync.buildingId !== building.id)) throw new NotFoundError(what);
@@ -420,7 +420,7 @@ async function writableBuilding(w: WriteContext, id: string, what: string) {
  * Take the building's lock (bumping its version) and return a row read under it: rows read before
  * the lock may have changed meanwhile, rows read after cannot, since every writer takes it first.
  */
-async function lockAndReload<T extends SyncColumns>(
+export async function lockAndReload<T extends SyncColumns>(
   w: WriteContext,
   buildingId: string,
   row: T,
@@ -483,7 +483,7 @@ export async function getPanel(em: EntityManager, actor: Actor, id: string) {
 
 // ---------- shared write steps ----------
 
-async function refuseDuplicateId(em: EntityManager, entity: typeof Building | typeof Panel | typeof Circuit, id: string) {
+export async function refuseDuplicateId(em: EntityManager, entity: EntityTarget<SyncColumns>, id: string) {
   if (await em.exists(entity, { where: { id } })) {
     throw new AppError(409, 'exists', 'A row with this id already exists');
   }
@@ -494,7 +494,7 @@ async function refuseDuplicateId(em: EntityManager, entity: typeof Building | ty
  * restore beats an older delete), logging the edits the deleting device had not seen.
  * Returns whether the row is now deleted by this write.
  */
-function tombstone<T extends SyncColumns>(
+export function tombstone<T extends SyncColumns>(
   row: T,
   w: WriteContext,
   version: number,
@@ -557,7 +557,7 @@ async function cascadeRestore(
 }
 
 /** Restore one row under last-writer-wins; returns the deletion stamp it undid, if it did. */
-function untombstone<T extends SyncColumns>(
+export function untombstone<T extends SyncColumns>(
   row: T,
   w: WriteContext,
   version: number,
@@ -994,14 +994,17 @@ const FREE_CIRCUIT_FIELDS: ReadonlySet<string> = new Set([
 
 /**
  * Whether mergeCircuitPatchesSetwise can take a batch: sync patches of free fields only, one per
- * circuit, from one device, each naming a building this push has locked (so the actor may edit it).
+ * circuit, from one device, each naming a building this push has locked where the actor edits schedules.
  */
 export function canMergeSetwise(items: readonly CircuitPatchItem[]): boolean {
   if (items.length === 0) return false;
   const ids = new Set<string>();
   const { device, actor } = items[0].w;
   for (const { w, id, patch } of items) {
-    if (!w.sync || w.device !== device || w.actor !== actor || !w.versions.home(w.sync.buildingId)) return false;
+    if (!w.sync || w.device !== device || w.actor !== actor) return false;
+    // locked by this push, and the actor edits schedules there (a push locks for every role)
+    const home = w.versions.home(w.sync.buildingId);
+    if (!home || !EDITORS.includes(actor.roles.get(home.organisationId) as Role)) return false;
     if (ids.has(id)) return false;
     ids.add(id);
     if (!Object.keys(patch).every((f) => FREE_CIRCUIT_FIELDS.has(f))) return false;

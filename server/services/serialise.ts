@@ -71,6 +71,7 @@ export function circuitDto(c: Circuit): CircuitDto {
     feedsPanelId: c.feedsPanelId,
     handleLock: c.handleLock,
     notes: c.notes,
+    bandId: c.bandId,
   };
 }
 
@@ -98,4 +99,18 @@ export function conflictDto(c: ConflictLog, names: ReadonlyMap<string, string>):
     kind: c.kind,
     resolution: c.resolution,
   };
+}
+
+/**
+ * A condition-record row as synced: every column but field_meta, dates as ISO text and the
+ * version as a number (the row types are in shared/records.ts).
+ */
+export function recordDto(row: SyncColumns): Record<string, unknown> {
+  const out: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(row)) {
+    if (key === 'fieldMeta') continue;
+    out[key] = value instanceof Date ? value.toISOString() : value;
+  }
+  out.version = Number(row.version);
+  return out;
 }

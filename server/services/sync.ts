@@ -12,17 +12,32 @@ import {
   type PullBody,
   type PullResponse,
   type PushResponse,
+  RECORD_LISTS,
+  type RecordList,
   type Resolution,
 } from '../../shared/sync';
 import { roleForBuilding, type Actor } from '../auth/access';
-import { Building, Circuit, ConflictLog, Panel, User } from '../entities';
+import {
+  Building,
+  Circuit,
+  ConflictLog,
+  Deficiency,
+  DeficiencyEntry,
+  Inspection,
+  Panel,
+  Photo,
+  Reading,
+  TripEvent,
+  User,
+} from '../entities';
 import type { SyncColumns } from '../entities/sync-columns';
 import { AppError } from '../http/errors';
 import { logger } from '../logger';
 import { observeStamp, serverStamp } from './clock';
 import { selectRows } from './bulk';
+import { applyRecordMutation } from './records';
 import * as register from './register';
-import { buildingDto, circuitDto, conflictDto, panelDto } from './serialise';
+import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from './serialise';
 
 /**
  * The server side of offline sync (SYNC.md).
@@ -189,9 +204,9 @@ class Push {
     const replayed = new Set(done.keys());
     const claimed = [...new Set(valid.filter((p) => !replayed.has(p.id)).map((p) => p.mutation.buildingId))];
     if (claimed.length === 0) return;
-    // only where this user may write: others' mutations are rejected without touching the building
-    const editorOf = [...this.actor.roles].filter(([, role]) => role === 'admin' || role === 'electrician');
-    await this.versions.lockAll(claimed, editorOf.map(([organisationId]) => organisationId));
+    // only buildings of the user's organisations (every role writes something: owners defer and
+    // comment, inspectors record); a mutation the role may not make is rejected after the lock
+    await this.versions.lockAll(claimed, [...this.actor.roles.keys()]);
   }
 
   /** Apply every mutation in order; runs of circuit patches as one batch. */
@@ -442,6 +457,10 @@ async function apply(w: register.WriteContext, m: Mutation, fields: Record<strin
     case 'conflict.resolve':
       await register.resolveConflict(w, m.entityId, (fields as { resolution: Resolution }).resolution);
       return;
+    default:
+      if (!(await applyRecordMutation(w, m.name, m.entityId, fields))) {
+        throw new AppError(400, 'invalid', `unknown mutation ${m.name}`);
+      }
   }
 }
 
@@ -476,11 +495,31 @@ const emptyPage = (buildingId: string, toVersion: number, hasMore: boolean): Bui
   toVersion,
   hasMore,
   building: null,
-  upserts: { panels: [], circuits: [], conflicts: [] },
-  tombstones: { panels: [], circuits: [] },
+  upserts: { panels: [], circuits: [], conflicts: [], ...emptyLists() },
+  tombstones: { panels: [], circuits: [], ...emptyLists() },
 });
 
-type PulledTable = 'panel' | 'circuit' | 'conflict_log';
+/** The condition record's tables, by the name of their list in a page. */
+const RECORD_TABLES = {
+  inspections: { table: 'inspection', entity: Inspection },
+  readings: { table: 'reading', entity: Reading },
+  deficiencies: { table: 'deficiency', entity: Deficiency },
+  entries: { table: 'deficiency_entry', entity: DeficiencyEntry },
+  trips: { table: 'trip_event', entity: TripEvent },
+  photos: { table: 'photo', entity: Photo },
+} as const satisfies Record<RecordList, { table: string; entity: EntityTarget<SyncColumns> }>;
+
+function emptyLists(): Record<RecordList, never[]> {
+  return Object.fromEntries(RECORD_LISTS.map((l) => [l, []])) as unknown as Record<RecordList, never[]>;
+}
+
+type PulledTable = 'panel' | 'circuit' | 'conflict_log' | (typeof RECORD_TABLES)[RecordList]['table'];
+const PULLED_TABLES: readonly PulledTable[] = [
+  'panel',
+  'circuit',
+  'conflict_log',
+  ...RECORD_LISTS.map((l) => RECORD_TABLES[l].table),
+];
 
 /**
  * Rows of one page ($1 building, $2 cursor, $3 last version): past the cursor, up to a version; a
@@ -509,7 +548,7 @@ async function pageEnd(
   snapshot: boolean,
   budget: number,
 ): Promise<number | null> {
-  const tables = ['panel', 'circuit', 'conflict_log'] as const;
+  const tables = PULLED_TABLES;
   const [{ n }]: { n: string }[] = await em.query(
     `SELECT (${tables.map((t) => `(SELECT count(*) ${rangeSql(t, snapshot)})`).join(' + ')}) AS n`,
     [buildingId, since, upTo],
@@ -558,6 +597,16 @@ async function buildingPage(
   const panels = await read(Panel, 'panel');
   const circuits = await read(Circuit, 'circuit');
   const conflicts = await read(ConflictLog, 'conflict_log');
+  const records: Record<RecordList, Record<string, unknown>[]> = emptyLists();
+  const recordTombstones: Record<RecordList, string[]> = emptyLists();
+  let recordRows = 0;
+  for (const list of RECORD_LISTS) {
+    const { table, entity } = RECORD_TABLES[list];
+    const rows = await read(entity, table);
+    recordRows += rows.length;
+    records[list] = rows.filter((r) => !r.deletedAt).map(recordDto);
+    recordTombstones[list] = rows.filter((r) => r.deletedAt).map((r) => r.id);
+  }
   const counts = await register.panelCounts(em, [building.id]);
   const names = await userNames(em, conflicts);
   const role = roleForBuilding(actor, building)!;
@@ -571,13 +620,15 @@ async function buildingPage(
       panels: panels.filter((p) => !p.deletedAt).map(panelDto),
       circuits: circuits.filter((c) => !c.deletedAt).map(circuitDto),
       conflicts: conflicts.map((c) => conflictDto(c, names)),
+      ...(records as unknown as Pick<BuildingPage['upserts'], RecordList>),
     },
     tombstones: {
       panels: panels.filter((p) => p.deletedAt).map((p) => p.id),
       circuits: circuits.filter((c) => c.deletedAt).map((c) => c.id),
+      ...recordTombstones,
     },
   };
-  return { page, rows: panels.length + circuits.length + conflicts.length };
+  return { page, rows: panels.length + circuits.length + conflicts.length + recordRows };
 }
 
 /**
