@@ -74,9 +74,9 @@ export default function RootLayout() {
 }
 
 const dehydrateOptions = {
-  // persist by allow-list: the session and the building copy; mutations still waiting
+  // persist by allow-list: the session, the building copy, the band library; mutations still waiting
   shouldDehydrateQuery: (q: { queryKey: readonly unknown[]; state: { status: string } }) =>
-    q.state.status === 'success' && ['me', 'replica', 'sync-log'].includes(String(q.queryKey[0])),
+    q.state.status === 'success' && ['me', 'replica', 'sync-log', 'bands'].includes(String(q.queryKey[0])),
   shouldDehydrateMutation: (m: { state: { status: string } }) => m.state.status === 'pending',
 };
 

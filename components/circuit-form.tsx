@@ -63,6 +63,7 @@ export const NEW_CIRCUIT: CircuitFields = {
   feedsPanelId: null,
   handleLock: false,
   notes: '',
+  bandId: null,
 };
 
 interface Draft {

@@ -7,4 +7,6 @@ export const keys = {
   replica: REPLICA_KEY,
   /** what happened to this device's pushed changes (lib/replica.ts SyncLog) */
   syncLog: SYNC_LOG_KEY,
+  /** the organisation's time-current band library (REST, persisted for offline judging) */
+  bands: ['bands'] as const,
 };

@@ -66,7 +66,13 @@ export function usePanelSave(panelId: string) {
   };
 }
 
-const ENTITY_MUTATION = { building: 'building', panel: 'panel', circuit: 'circuit' } as const;
+/** Kinds whose deleted rows can be brought back (the condition record's cannot). */
+const RESTORABLE = new Set(['building', 'panel', 'circuit']);
+
+/** Whether "restore mine" can do anything for this conflict. */
+export function canRestore(c: Conflict): boolean {
+  return c.kind !== 'edited_after_delete' || RESTORABLE.has(c.entity);
+}
 
 /** "Keep theirs" closes the conflict; "restore mine" writes the losing value again, then closes it. */
 export function useConflictActions() {
@@ -76,13 +82,16 @@ export function useConflictActions() {
   return {
     keepTheirs: (c: Conflict) => resolve(c, 'kept_theirs'),
     restoreMine: (c: Conflict) => {
-      const kind = ENTITY_MUTATION[c.entity];
+      const kind = c.entity;
       // the conflict row is at least as new as the write that won: this is no new concurrent edit
       const baseVersion = c.version;
+      if (!canRestore(c)) return;
       if (c.kind === 'edited_after_delete') {
-        enqueue({ name: `${kind}.restore`, buildingId: c.buildingId, entityId: c.entityId, baseVersion, fields: {} });
+        const restore = `${kind}.restore` as Mutation['name'];
+        enqueue({ name: restore, buildingId: c.buildingId, entityId: c.entityId, baseVersion, fields: {} });
       }
-      enqueue({ name: `${kind}.patch`, buildingId: c.buildingId, entityId: c.entityId, baseVersion, fields: c.loserValue });
+      const patch = `${kind}.patch` as Mutation['name'];
+      enqueue({ name: patch, buildingId: c.buildingId, entityId: c.entityId, baseVersion, fields: c.loserValue });
       resolve(c, 'restored_mine');
     },
   };

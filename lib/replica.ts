@@ -3,16 +3,32 @@
  * rows, its conflicts and its pull cursor. Pure functions only: pulls and local writes both go
  * through here, so what the screens show is always "server truth + the changes still queued".
  */
+import type { Deficiency, DeficiencyEntry, Inspection, Photo, Reading, TripEvent } from '@/shared/records';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
-import type { BuildingPage, Conflict, Mutation, MutationResult, PullResponse } from '@/shared/sync';
+import { RECORD_LISTS, type BuildingPage, type Conflict, type Mutation, type MutationResult, type PullResponse, type RecordList } from '@/shared/sync';
 
-export interface BuildingCopy {
+/** The condition record of a building, by list (the same names as a pull page's). */
+export interface RecordCopy {
+  inspections: Record<string, Inspection>;
+  readings: Record<string, Reading>;
+  deficiencies: Record<string, Deficiency>;
+  entries: Record<string, DeficiencyEntry>;
+  trips: Record<string, TripEvent>;
+  photos: Record<string, Photo>;
+}
+
+export interface BuildingCopy extends Partial<RecordCopy> {
   building: Building;
   panels: Record<string, Panel>;
   circuits: Record<string, Circuit>;
   conflicts: Record<string, Conflict>;
   /** version of the last page applied: the next pull asks for what came after */
   cursor: number;
+}
+
+/** A record list of a copy (a copy persisted before the condition record existed has none). */
+export function recordsOf<L extends RecordList>(copy: BuildingCopy, list: L): RecordCopy[L] {
+  return (copy[list] ?? {}) as RecordCopy[L];
 }
 
 /** A change the server refused (permission, validation): kept so nothing typed is lost silently. */
@@ -64,7 +80,17 @@ function applyPage(copy: BuildingCopy | undefined, page: BuildingPage): Building
   // upserts may carry tombstoned rows too: the live view holds live rows only
   for (const [id, p] of Object.entries(panels)) if (p.deletedAt) delete panels[id];
   for (const [id, c] of Object.entries(circuits)) if (c.deletedAt || !panels[c.panelId]) delete circuits[id];
-  return { building, panels, circuits, conflicts, cursor: page.toVersion };
+  const records = {} as RecordCopy;
+  for (const list of RECORD_LISTS) {
+    const rows: Record<string, { deletedAt: string | null }> = {
+      ...(base ? recordsOf(base, list) : {}),
+      ...byId((page.upserts[list] ?? []) as { id: string; deletedAt: string | null }[]),
+    };
+    for (const id of page.tombstones[list] ?? []) delete rows[id];
+    for (const [id, row] of Object.entries(rows)) if (row.deletedAt) delete rows[id];
+    (records as unknown as Record<string, unknown>)[list] = rows;
+  }
+  return { building, panels, circuits, conflicts, ...records, cursor: page.toVersion };
 }
 
 /** Apply one pull response: pages per building, then buildings the user lost. */
@@ -148,9 +174,101 @@ export function applyMutation(replica: Replica, m: Mutation, userId: string | nu
         return { ...c, conflicts: { ...c.conflicts, [m.entityId]: { ...old, resolution: f.resolution as Conflict['resolution'] } } };
       });
     default:
-      // creates of panels and buildings, deletes of buildings and restores show after the next pull
-      return replica;
+      return applyRecordMutation(replica, m, userId);
   }
+}
+
+/** Which list a record mutation's kind lives in. */
+const LIST_OF: Record<string, RecordList> = {
+  inspection: 'inspections',
+  reading: 'readings',
+  deficiency: 'deficiencies',
+  trip: 'trips',
+  photo: 'photos',
+};
+
+/** What the server adds to a new row, as far as the device can tell before it answers. */
+function createdColumns(kind: string, m: Mutation, me: MeLike): Record<string, unknown> {
+  switch (kind) {
+    case 'inspection':
+      return { inspectorId: me.userId, inspectorName: me.name, signedAt: null, signedBy: null, signedByName: null };
+    case 'deficiency':
+      return { raisedBy: me.userId, raisedByName: me.name };
+    case 'photo':
+      return { uploaded: false };
+    default:
+      return {};
+  }
+}
+
+interface MeLike {
+  userId: string | null;
+  name: string;
+}
+
+function withList<L extends RecordList>(
+  replica: Replica,
+  buildingId: string,
+  list: L,
+  edit: (rows: RecordCopy[L], copy: BuildingCopy) => RecordCopy[L],
+): Replica {
+  return withCopy(replica, buildingId, (c) => ({ ...c, [list]: edit(recordsOf(c, list), c) }));
+}
+
+/** Creates, patches and deletes of the condition record, and the inspection's sign-off. */
+function applyRecordMutation(replica: Replica, m: Mutation, userId: string | null): Replica {
+  const f = m.fields as Record<string, unknown>;
+  // the server fills in names; until it answers, a row made here shows its author as "you"
+  const me = { userId, name: '' };
+  if (m.name === 'comment.create') {
+    return withList(replica, m.buildingId, 'entries', (rows) => ({
+      ...rows,
+      [m.entityId]: {
+        id: m.entityId,
+        buildingId: m.buildingId,
+        deficiencyId: f.deficiencyId as string,
+        kind: 'comment',
+        text: f.text as string,
+        changes: {},
+        userId,
+        userName: me.name,
+        at: hlcWallIso(m.hlc),
+        version: 0,
+        ...localColumns(m, userId),
+      },
+    }));
+  }
+  if (m.name === 'inspection.sign') {
+    return withList(replica, m.buildingId, 'inspections', (rows) => {
+      const old = rows[m.entityId];
+      if (!old || old.signedAt) return rows;
+      const signed = { ...old, signedAt: hlcWallIso(m.hlc), signedBy: userId, signedByName: me.name };
+      return { ...rows, [m.entityId]: signed };
+    });
+  }
+  const [kind, verb] = m.name.split('.');
+  const list = LIST_OF[kind];
+  if (!list) return replica;
+  return withList(replica, m.buildingId, list, (rows) => {
+    const all = rows as Record<string, object>;
+    if (verb === 'create') {
+      const row = { ...f, ...createdColumns(kind, m, me), id: m.entityId, buildingId: m.buildingId, version: 0, ...localColumns(m, userId) };
+      return { ...all, [m.entityId]: row } as RecordCopy[typeof list];
+    }
+    const old = all[m.entityId];
+    if (!old) return rows;
+    if (verb === 'patch') return { ...all, [m.entityId]: { ...old, ...f, ...localColumns(m, userId) } } as RecordCopy[typeof list];
+    if (verb === 'delete') {
+      const { [m.entityId]: _gone, ...rest } = all;
+      return rest as RecordCopy[typeof list];
+    }
+    return rows;
+  });
+}
+
+/** The wall time of an HLC stamp as ISO text (the stamp starts with it). */
+function hlcWallIso(hlc: string): string {
+  return hlc.slice(0, 24);
 }
 
 /** "LA · 13 · description" — how a queued change reads on the Sync tab. */
@@ -167,6 +285,8 @@ export function describeMutation(replica: Replica, m: Mutation): string {
   }
   if (m.name.startsWith('panel.')) return `Panel ${copy?.panels[m.entityId]?.tag ?? ''} ${verb}${what}`.trim();
   if (m.name === 'conflict.resolve') return `Review decision (${String((m.fields as { resolution?: string }).resolution)})`;
+  const record = copy ? describeRecord(copy, m, verb, what) : null;
+  if (record) return record;
   return `${copy?.building.name ?? 'Building'} ${verb}${what}`;
 }
 
@@ -182,4 +302,26 @@ export function recordResult(log: SyncLog, label: string, m: Mutation, result: M
 
 export function dismissRefused(log: SyncLog, mutationId: string): SyncLog {
   return { ...log, refused: log.refused.filter((r) => r.mutation.id !== mutationId) };
+}
+
+const RECORD_NOUNS: Record<string, string> = {
+  inspection: 'Inspection',
+  reading: 'Reading',
+  deficiency: 'Deficiency',
+  comment: 'Comment',
+  trip: 'Recorded trip',
+  photo: 'Photo',
+};
+
+function describeRecord(copy: BuildingCopy, m: Mutation, verb: string, what: string): string | null {
+  const kind = m.name.split('.')[0];
+  const noun = RECORD_NOUNS[kind];
+  if (!noun) return null;
+  const f = m.fields as Record<string, unknown>;
+  if (kind === 'deficiency') {
+    const title = (f.title as string | undefined) ?? recordsOf(copy, 'deficiencies')[m.entityId]?.title;
+    return `${noun} ${verb}${title ? ` · ${title}` : ''}${verb === 'patch' ? what : ''}`;
+  }
+  if (kind === 'reading') return `${noun} ${verb}${f.kind ? ` · ${String(f.kind)}` : ''}${verb === 'patch' ? what : ''}`;
+  return `${noun} ${verb}${verb === 'patch' ? what : ''}`;
 }

@@ -5,7 +5,7 @@ import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colours, radii, space } from '@/components/theme';
 import { stampTime, timeAgo } from '@/components/time-ago';
-import { useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
+import { canRestore, useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
 import { useSyncReview } from '@/hooks/use-register';
 import { getPersistProblem, subscribePersistProblem } from '@/lib/storage-health';
 import type { Conflict } from '@/shared/sync';
@@ -104,7 +104,9 @@ function ConflictCard({ conflict, where }: { conflict: Conflict; where: string }
       </Text>
       <View style={styles.actions}>
         <Button label="Keep theirs" tone="secondary" onPress={() => keepTheirs(conflict)} testID="keep-theirs" />
-        <Button label="Restore mine" tone="secondary" onPress={() => restoreMine(conflict)} testID="restore-mine" />
+        {canRestore(conflict) ? (
+          <Button label="Restore mine" tone="secondary" onPress={() => restoreMine(conflict)} testID="restore-mine" />
+        ) : null}
       </View>
     </View>
   );

@@ -11,11 +11,17 @@ const panel = { ...sync('p1'), buildingId: 'b1', tag: 'LA', spaces: 42 } as unkn
 const circuit = (id: string, position: number, description: string, version = 1) =>
   ({ ...sync(id, version), panelId: 'p1', position, poles: 1, description, status: 'in-use' }) as unknown as Circuit;
 
-function page(over: Partial<BuildingPage>): BuildingPage {
+const NO_RECORDS = { inspections: [], readings: [], deficiencies: [], entries: [], trips: [], photos: [] };
+type PageOver = Omit<Partial<BuildingPage>, 'upserts' | 'tombstones'> & {
+  upserts?: Partial<BuildingPage['upserts']>;
+  tombstones?: Partial<BuildingPage['tombstones']>;
+};
+function page(over: PageOver): BuildingPage {
   return {
     buildingId: 'b1', reset: false, toVersion: 1, hasMore: false, building: null,
-    upserts: { panels: [], circuits: [], conflicts: [] }, tombstones: { panels: [], circuits: [] },
     ...over,
+    upserts: { panels: [], circuits: [], conflicts: [], ...NO_RECORDS, ...over.upserts },
+    tombstones: { panels: [], circuits: [], ...NO_RECORDS, ...over.tombstones },
   };
 }
 const pull = (r: Replica, ...pages: BuildingPage[]) => applyPull(r, { serverHlc: 'x', revoked: [], buildings: pages });
@@ -88,5 +94,50 @@ describe('recordResult', () => {
     assert.deepEqual(two.synced.map((s) => s.mutationId), ['m2', 'm1']);
     assert.equal(two.refused.length, 1);
     assert.equal(two.refused[0].reason, 'Owners cannot edit schedules');
+  });
+});
+
+describe('the condition record on the device', () => {
+  const hlc = '2026-03-01T10:00:00.000Z-0000-dev1';
+  const m = (name: Mutation['name'], entityId: string, fields: Record<string, unknown>): Mutation => ({
+    id: `m-${entityId}-${name}`, name, buildingId: 'b1', entityId, baseVersion: 0, hlc, fields,
+  });
+
+  it('a queued deficiency shows at once, with its author and the changes laid on it', () => {
+    let r = applyMutation(snapshot, m('deficiency.create', 'd1', { title: 'Hot lug', priority: 1, status: 'open' }), 'u1');
+    const d = r.buildings.b1.deficiencies!.d1;
+    assert.equal(d.title, 'Hot lug');
+    assert.equal(d.raisedBy, 'u1');
+    r = applyMutation(r, m('deficiency.patch', 'd1', { status: 'scheduled' }), 'u1');
+    assert.equal(r.buildings.b1.deficiencies!.d1.status, 'scheduled');
+    r = applyMutation(r, m('comment.create', 'e1', { deficiencyId: 'd1', text: 'Parts ordered' }), 'u1');
+    assert.equal(r.buildings.b1.entries!.e1.text, 'Parts ordered');
+    assert.equal(r.buildings.b1.entries!.e1.at, '2026-03-01T10:00:00.000Z');
+    r = applyMutation(r, m('deficiency.delete', 'd1', {}), 'u1');
+    assert.equal(r.buildings.b1.deficiencies!.d1, undefined);
+  });
+
+  it('signing freezes the inspection on the device too', () => {
+    let r = applyMutation(snapshot, m('inspection.create', 'i1', { kind: 'thermal-survey', panelIds: ['p1'] }), 'u1');
+    assert.equal(r.buildings.b1.inspections!.i1.signedAt, null);
+    r = applyMutation(r, m('inspection.sign', 'i1', {}), 'u1');
+    assert.equal(r.buildings.b1.inspections!.i1.signedAt, '2026-03-01T10:00:00.000Z');
+  });
+
+  it('pulled records land by list, tombstones and deleted rows leave', () => {
+    const reading = (id: string, deletedAt: string | null = null) =>
+      ({ ...sync(id, 4), deletedAt, buildingId: 'b1', inspectionId: 'i1', panelId: 'p1', kind: 'thermal' }) as never;
+    let r = pull(snapshot, page({ toVersion: 4, upserts: { readings: [reading('r1'), reading('r2'), reading('r3', '2026-03-01T00:00:00.000Z')] } }));
+    assert.deepEqual(Object.keys(r.buildings.b1.readings!).sort(), ['r1', 'r2']);
+    r = pull(r, page({ toVersion: 5, tombstones: { readings: ['r1'] } }));
+    assert.deepEqual(Object.keys(r.buildings.b1.readings!), ['r2']);
+  });
+
+  it('a copy persisted before the condition record existed takes a delta', () => {
+    const { inspections: _i, readings: _r, deficiencies: _d, entries: _e, trips: _t, photos: _p, ...old } = snapshot.buildings.b1;
+    const legacy: Replica = { ...snapshot, buildings: { b1: old } };
+    const r = pull(legacy, page({ toVersion: 6, upserts: { trips: [{ ...sync('t1', 6), buildingId: 'b1' } as never] } }));
+    assert.deepEqual(Object.keys(r.buildings.b1.trips!), ['t1']);
+    assert.deepEqual(r.buildings.b1.photos, {});
   });
 });
