@@ -184,6 +184,14 @@ function RootStack() {
         <Stack.Screen name="panels/[panelId]/edit" options={{ title: 'Edit panel' }} />
         <Stack.Screen name="panels/[panelId]/new-circuit" options={{ title: 'Add circuit' }} />
         <Stack.Screen name="panels/[panelId]/circuits/[circuitId]" options={{ title: 'Circuit' }} />
+        <Stack.Screen name="inspections/new" options={{ title: 'New inspection' }} />
+        <Stack.Screen name="inspections/[inspectionId]/index" options={{ title: 'Inspection' }} />
+        <Stack.Screen name="inspections/[inspectionId]/reading" options={{ title: 'Reading' }} />
+        <Stack.Screen name="bands/index" options={{ title: 'Time-current bands' }} />
+        <Stack.Screen name="bands/new" options={{ title: 'New band' }} />
+        <Stack.Screen name="deficiencies/new" options={{ title: 'New deficiency' }} />
+        <Stack.Screen name="deficiencies/[deficiencyId]" options={{ title: 'Deficiency' }} />
+        <Stack.Screen name="trips/new" options={{ title: 'Record a trip' }} />
       </Stack.Protected>
       <Stack.Protected guard={!signedIn}>
         <Stack.Screen name="sign-in" options={{ headerShown: false }} />
