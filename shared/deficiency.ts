@@ -60,6 +60,14 @@ export function cannot(role: Role, action: DeficiencyAction): string {
   return `${role[0].toUpperCase()}${role.slice(1)}s cannot ${ACTION_WORDS[action]}`;
 }
 
+const STATUS_WORD: Record<DeficiencyStatus, string> = {
+  open: 'An open deficiency',
+  scheduled: 'A scheduled deficiency',
+  repaired: 'A repaired deficiency',
+  verified: 'A verified deficiency',
+  deferred: 'A deferred deficiency',
+};
+
 /** The allowed status changes and the action each is. */
 const TRANSITIONS: Record<DeficiencyStatus, Partial<Record<DeficiencyStatus, DeficiencyAction>>> = {
   open: { scheduled: 'schedule', repaired: 'repair', deferred: 'defer' },
@@ -122,7 +130,7 @@ export function checkDeficiencyChange(input: {
   if (changed.includes('status') && after.status !== before.status) {
     const action = TRANSITIONS[before.status][after.status];
     if (!action) {
-      fields.status = `a ${before.status} deficiency cannot become ${after.status}`;
+      fields.status = `${STATUS_WORD[before.status]} cannot become ${after.status}`;
       return { forbidden: null, fields };
     }
     if (!may(role, action)) return refuse(action);
