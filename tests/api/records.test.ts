@@ -7,7 +7,7 @@
  */
 import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
-import request from 'supertest';
+import type request from 'supertest';
 import { uuidv7 } from 'uuidv7';
 import { formatHlc } from '../../shared/hlc';
 import { SCHEMA_VERSION, type Mutation, type PullResponse, type PushResponse } from '../../shared/sync';
