@@ -268,6 +268,27 @@ describe('deficiencies', () => {
     assert.equal((await row(id)).due_on, plus(30));
   });
 
+  it('the organisation\u2019s own due days, set by an admin, apply to new deficiencies', async () => {
+    const me = (await admin.get('/api/me')).body;
+    const orgId = me.memberships[0].organisationId as string;
+    assert.deepEqual(me.memberships[0].settings.dueDays, { 1: 7, 2: 30, 3: 90, 4: 365 });
+    const denied = await inspector.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 1, 2: 2, 3: 3, 4: 4 } });
+    assert.equal(denied.status, 403);
+    const bad = await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: -1, 2: 2, 3: 3, 4: 4 } });
+    assert.equal(bad.status, 400);
+    assert.ok(bad.body.error.fields['dueDays.1'], JSON.stringify(bad.body));
+    const set = await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 2, 2: 14, 3: 60, 4: 180 } });
+    assert.equal(set.status, 200, JSON.stringify(set.body));
+    try {
+      const id = await raise({ priority: 1 });
+      const d = new Date(`${new Date().toISOString().slice(0, 10)}T00:00:00Z`);
+      d.setUTCDate(d.getUTCDate() + 2);
+      assert.equal((await row(id)).due_on, d.toISOString().slice(0, 10));
+    } finally {
+      await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 7, 2: 30, 3: 90, 4: 365 } });
+    }
+  });
+
   it('only inspectors and admins raise', async () => {
     const byElectrician = await rejected(electrician, m('deficiency.create', uuidv7(), { title: 'x', priority: 2 }));
     assert.match(byElectrician.reason ?? '', /Electricians cannot raise/);
