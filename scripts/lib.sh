@@ -48,6 +48,15 @@ ensure_postgres() {
   fi
 }
 
+# ExifTool (npm exiftool-vendored, which strips location from uploaded photos) runs on the system
+# perl; a minimal Debian has only perl-base, which lacks modules ExifTool loads.
+ensure_perl() {
+  if ! perl -MFileHandle -MFile::Find -MEncode -e 1 >/dev/null 2>&1 || ! dpkg -s perl >/dev/null 2>&1; then
+    log "Installing perl from Debian's packages (for photo metadata)…"
+    apt_install perl
+  fi
+}
+
 ensure_chromium() {
   [ -x /usr/bin/chromium ] && return 0
   log "Installing Debian's Chromium for the browser tests…"
@@ -110,6 +119,61 @@ pg_down() {
 }
 
 tsx_server() { TSX_TSCONFIG_PATH=server/tsconfig.json tsx "$@"; }
+
+# ---------- object storage: a local s3rver (scripts/s3-server.ts) ----------
+# Its data sits beside the PostgreSQL cluster of the same name (`<cluster>-s3`), with its pid file
+# and log. Only the process named in the pid file is ever stopped, and only when it is ours.
+S3_BUCKET_LOCAL=ampwright
+
+s3_dir() { echo "$(pg_datadir "$1")-s3"; }
+
+# s3_pid NAME: the pid of this checkout's running s3rver NAME, or nothing.
+s3_pid() {
+  local pidfile pid
+  pidfile="$(s3_dir "$1")/s3rver.pid"
+  [ -f "$pidfile" ] || return 0
+  pid="$(cat "$pidfile")"
+  # a stale pid may belong to another process by now: check it is our script before trusting it
+  if [ -n "$pid" ] && tr '\0' ' ' <"/proc/$pid/cmdline" 2>/dev/null | grep -q "scripts/s3-server.ts"; then
+    echo "$pid"
+  fi
+}
+
+# s3_up NAME PORT [fresh]: start (if needed) a fake S3 on 127.0.0.1:PORT with the bucket created,
+# wait until it answers, and export the S3_* variables the server reads (server/config.ts).
+s3_up() {
+  local name="$1" port="$2" fresh="${3:-}"
+  local dir; dir="$(s3_dir "$name")"
+  if [ "$fresh" = fresh ]; then s3_down "$name"; rm -rf "$dir"; fi
+  mkdir -p "$dir"
+  if [ -z "$(s3_pid "$name")" ]; then
+    rm -f "$dir/s3rver.pid"
+    # its own session, so a Ctrl-C of npm start leaves it running like the database; npm run stop ends it
+    setsid node --import tsx scripts/s3-server.ts "$port" "$dir/data" "$S3_BUCKET_LOCAL" "$dir/s3rver.pid" \
+      >"$dir/s3rver.log" 2>&1 </dev/null &
+  fi
+  local code=000
+  for _ in $(seq 1 80); do
+    code="$(curl -s -o /dev/null -w '%{http_code}' "http://127.0.0.1:$port/$S3_BUCKET_LOCAL" || true)"
+    [ "$code" = 200 ] && [ -n "$(s3_pid "$name")" ] && break
+    sleep 0.25
+  done
+  if [ "$code" != 200 ] || [ -z "$(s3_pid "$name")" ]; then
+    tail -20 "$dir/s3rver.log" >&2 || true
+    die "the local S3 '$name' did not answer on 127.0.0.1:$port (log above; is the port taken?)"
+  fi
+  export S3_ENDPOINT="http://127.0.0.1:$port" S3_REGION=us-east-1 S3_BUCKET="$S3_BUCKET_LOCAL" \
+    S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER S3_FORCE_PATH_STYLE=1
+}
+
+s3_down() {
+  local pid dir; pid="$(s3_pid "$1")"; dir="$(s3_dir "$1")"
+  [ -n "$pid" ] || return 0
+  kill "$pid" 2>/dev/null || true
+  for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
+  rm -f "$dir/s3rver.pid"
+  log "Stopped the local S3 '$1'"
+}
 
 # Rebuild the web bundle only when a client source changed since the last build.
 web_source_hash() {

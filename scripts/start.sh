@@ -3,7 +3,10 @@
 source "$(dirname "$0")/lib.sh"
 ensure_node_modules
 ensure_postgres
+ensure_perl
 pg_up dev "${AMPWRIGHT_PG_PORT:-54329}"
+# photos go to object storage: a local fake S3 unless S3_BUCKET names a real one
+if [ -z "${S3_BUCKET:-}" ]; then s3_up dev "${AMPWRIGHT_S3_PORT:-54330}"; fi
 log "Running migrations…"
 tsx_server scripts/db.ts migrate
 tsx_server scripts/db.ts seed-if-empty

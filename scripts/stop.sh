@@ -1,5 +1,7 @@
 #!/usr/bin/env bash
-# npm run stop: stop the database clusters that npm start / npm test started.
+# npm run stop: stop the database clusters and local S3 servers that npm start / npm test started.
 source "$(dirname "$0")/lib.sh"
+s3_down dev
+s3_down test
 pg_down dev
 pg_down test

@@ -4,13 +4,16 @@
 source "$(dirname "$0")/lib.sh"
 ensure_node_modules
 ensure_postgres
+ensure_perl
 ensure_chromium
 
 TEST_PG_PORT="${AMPWRIGHT_TEST_PG_PORT:-54339}"
+TEST_S3_PORT="${AMPWRIGHT_TEST_S3_PORT:-54340}"
 E2E_PORT="${AMPWRIGHT_E2E_PORT:-8090}"
 server_pid=""
 cleanup() {
   [ -n "$server_pid" ] && kill "$server_pid" 2>/dev/null && wait "$server_pid" 2>/dev/null
+  s3_down test
   pg_down test
 }
 trap cleanup EXIT
@@ -27,6 +30,8 @@ suite "type check (client and server)" bash -c 'tsc --noEmit -p . && tsc --noEmi
 suite "lint (eslint)" eslint .
 
 pg_up test "$TEST_PG_PORT" fresh
+# a fresh fake S3 for the photo tests and the browser suite's server (exports S3_*)
+s3_up test "$TEST_S3_PORT" fresh
 export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"
 tsx_server scripts/db.ts migrate >/dev/null
 tsx_server scripts/db.ts seed-if-empty >/dev/null

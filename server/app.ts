@@ -9,19 +9,22 @@ import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
 import { errorHandler } from './http/error-handler';
 import { requestLog } from './http/request-log';
+import { photosRouter } from './routes/photos';
 import { recordsRouter } from './routes/records';
 import { registerRouter } from './routes/register';
 import { syncRouter } from './routes/sync';
+import { closePhotoTools } from './services/photo-image';
+import { PhotoStore, type PhotoStoreConfig } from './services/photo-store';
 
 export interface AppDeps {
   dataSource: DataSource;
-  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY'>;
+  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY'> & PhotoStoreConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
 }
 
 export interface App extends Express {
-  /** closes what createApp opened (the session pool); the DataSource belongs to the caller */
+  /** closes what createApp opened (session pool, S3 client, ExifTool); the DataSource is the caller's */
   closeResources(): Promise<void>;
 }
 
@@ -59,7 +62,10 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   app.use('/api/auth', authRouter(dataSource, config.SIGN_IN_LIMIT));
   app.use('/api', meRouter(dataSource));
   // before the register router, whose requireUser would otherwise load the actor a second time
+  // (and so are the photos)
   app.use('/api/sync', syncRouter(dataSource));
+  const photoStore = new PhotoStore(config);
+  app.use('/api/photos', photosRouter(dataSource, photoStore));
   app.use('/api', registerRouter(dataSource));
   app.use('/api', recordsRouter(dataSource));
   app.use('/api', (_req, res) => {
@@ -77,6 +83,10 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   }
 
   app.use(errorHandler);
-  app.closeResources = () => sessionPool.end();
+  app.closeResources = async () => {
+    photoStore.close();
+    await closePhotoTools();
+    await sessionPool.end();
+  };
   return app;
 }

@@ -13,15 +13,49 @@ const configSchema = z.object({
   /** behind a TLS-terminating proxy: trust its X-Forwarded-Proto so cookies get Secure */
   TRUST_PROXY: z.enum(['0', '1']).default('0'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
+  // object storage for photos (server/services/photo-store.ts); outside production the local
+  // fake's values below are the defaults
+  /** an S3-compatible endpoint; leave it unset for AWS itself (the SDK derives it from the region) */
+  S3_ENDPOINT: z.url({ error: 'a URL such as https://s3.example.net' }).optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z.string({ error: 'name the bucket for photos (S3_BUCKET)' }).min(1),
+  /** both or neither; neither lets the SDK find credentials itself (instance role, AWS_PROFILE) */
+  S3_ACCESS_KEY_ID: z.string().min(1).optional(),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
+  /** `1` for stores that want `endpoint/bucket/key` rather than `bucket.endpoint/key` */
+  S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('0'),
+}).refine((c) => (c.S3_ACCESS_KEY_ID === undefined) === (c.S3_SECRET_ACCESS_KEY === undefined), {
+  path: ['S3_SECRET_ACCESS_KEY'],
+  message: 'set S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY together, or neither',
 });
+
+/**
+ * The local fake S3 that `npm start` runs (scripts/lib.sh, scripts/s3-server.ts): s3rver's fixed
+ * credentials. Defaults only outside production, where a real store must be named.
+ */
+export const LOCAL_S3_DEFAULTS = {
+  S3_ENDPOINT: 'http://127.0.0.1:54330',
+  S3_REGION: 'us-east-1',
+  S3_BUCKET: 'ampwright',
+  S3_ACCESS_KEY_ID: 'S3RVER',
+  S3_SECRET_ACCESS_KEY: 'S3RVER',
+  S3_FORCE_PATH_STYLE: '1',
+} as const;
 
 export type Config = z.infer<typeof configSchema>;
 
+/** The configuration from the environment; throws naming every bad or missing variable. */
 export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const parsed = configSchema.safeParse(env);
+  const source = env.NODE_ENV === 'production' ? env : { ...LOCAL_S3_DEFAULTS, ...definedOnly(env) };
+  const parsed = configSchema.safeParse(source);
   if (!parsed.success) {
     const problems = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ');
     throw new Error(`bad configuration: ${problems}`);
   }
   return parsed.data;
+}
+
+/** The variables that are set (an `undefined` value would hide a default in the spread). */
+function definedOnly(env: NodeJS.ProcessEnv): Record<string, string> {
+  return Object.fromEntries(Object.entries(env).filter((e): e is [string, string] => e[1] !== undefined));
 }
