@@ -882,3 +882,151 @@ export const DEMO_USERS: {
 ];
 
 export const DEMO_PASSWORD = 'ampwright-demo';
+
+/**
+ * The demo's condition record (invented): at the clinic, the autoclave circuit LA 28 has tripped
+ * three times this autumn at about half its rating; the November thermal survey found its load
+ * lug hot and the torque audit found the terminal loose. Plus a stale directory entry found on the
+ * visual check and a filler plate the owner chose to defer. Dates are relative to the seed day.
+ */
+export interface DemoRecord {
+  buildingKey: string;
+  panelKey: string;
+  inspections: {
+    key: string;
+    kind: 'thermal-survey' | 'torque-audit' | 'visual';
+    by: 'inspector' | 'electrician';
+    daysAgo: number;
+    ambientC: number | null;
+    loadPct: number | null;
+    notes: string;
+    signed: boolean;
+  }[];
+  readings: ({ inspectionKey: string; key: string; position: number | null } & Record<string, unknown>)[];
+  trips: { position: number; daysAgo: number; hour: number; loadA: number | null; circumstances: string }[];
+  deficiencies: {
+    title: string;
+    description: string;
+    priority: 1 | 2 | 3 | 4;
+    position: number | null;
+    panelKey?: string;
+    readingKey?: string;
+    inspectionKey?: string;
+    source: 'reading' | 'checklist' | 'manual';
+    check?: string;
+    status: 'open' | 'scheduled' | 'deferred';
+    assignTo?: 'electrician';
+    deferReason?: string;
+    reviewInDays?: number;
+  }[];
+}
+
+export const DEMO_RECORD: DemoRecord = {
+  buildingKey: 'clinic',
+  panelKey: 'clinic-LA',
+  inspections: [
+    {
+      key: 'survey',
+      kind: 'thermal-survey',
+      by: 'inspector',
+      daysAgo: 20,
+      ambientC: 23,
+      loadPct: 55,
+      notes: 'Dead-front off, clinic open, autoclave cycling. Scanned LA and LB.',
+      signed: true,
+    },
+    {
+      key: 'torque',
+      kind: 'torque-audit',
+      by: 'electrician',
+      daysAgo: 18,
+      ambientC: null,
+      loadPct: null,
+      notes: 'Checked LA 28 after the survey, de-energised.',
+      signed: false,
+    },
+  ],
+  readings: [
+    {
+      inspectionKey: 'survey',
+      key: 'hot-lug',
+      position: 28,
+      kind: 'thermal',
+      component: 'lug',
+      phase: 'B',
+      temperatureC: 58,
+      referenceC: 36,
+      referenceBasis: 'similar',
+      loadA: 11,
+      referenceLoadA: 12.5,
+      notes: 'Load lug of LA 28 against LA 22 beside it.',
+    },
+    {
+      inspectionKey: 'survey',
+      key: 'bus',
+      position: null,
+      kind: 'thermal',
+      component: 'bus',
+      phase: 'A',
+      temperatureC: 31,
+      referenceC: 29,
+      referenceBasis: 'similar',
+      notes: 'Bus stab, phase A vs phase C.',
+    },
+    {
+      inspectionKey: 'torque',
+      key: 'loose',
+      position: 28,
+      kind: 'torque',
+      fastener: 'breaker load terminal',
+      specified: 35,
+      unit: 'lbf-in',
+      specSource: 'fallback-table',
+      conductorSize: '10',
+      screw: 'slotted-large',
+      asFound: 'turned',
+      asFoundValue: 15,
+      asLeft: 35,
+      notes: 'No maker value on the label; UL 486A-B table used.',
+    },
+  ],
+  trips: [
+    { position: 28, daysAgo: 35, hour: 8, loadA: 7, circumstances: 'Autoclave warming up for the first load' },
+    { position: 28, daysAgo: 27, hour: 13, loadA: 6.5, circumstances: 'Mid-cycle, nothing else on' },
+    { position: 28, daysAgo: 22, hour: 9, loadA: null, circumstances: 'Found tripped in the morning' },
+  ],
+  deficiencies: [
+    {
+      title: 'Hot load lug, LA 28 (autoclave)',
+      description: 'ΔT 22 °C over the neighbouring lug at 88 % of normal load.',
+      priority: 1,
+      position: 28,
+      readingKey: 'hot-lug',
+      inspectionKey: 'survey',
+      source: 'reading',
+      status: 'scheduled',
+      assignTo: 'electrician',
+    },
+    {
+      title: 'Directory names a person, not a room (LA 27)',
+      description: 'Rename to the room served.',
+      priority: 3,
+      position: 27,
+      inspectionKey: 'survey',
+      source: 'checklist',
+      check: 'directory-missing',
+      status: 'open',
+    },
+    {
+      title: 'Missing filler plate, panel LB',
+      description: 'One open space in the dead-front, bottom right.',
+      priority: 2,
+      position: null,
+      panelKey: 'clinic-LB',
+      source: 'manual',
+      status: 'deferred',
+      deferReason: 'Panel LB is being replaced in the spring renovation',
+      reviewInDays: 60,
+    },
+  ],
+};

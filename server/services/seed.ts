@@ -6,9 +6,24 @@ import {
   DEMO_ORGANISATION,
   DEMO_OWNER_BUILDING_KEY,
   DEMO_PASSWORD,
+  DEMO_RECORD,
   DEMO_USERS,
 } from '../../scripts/demo-data';
-import { Building, Circuit, Membership, Organisation, OwnerGrant, Panel, User } from '../entities';
+import { dueOnFor } from '../../shared/deficiency';
+import {
+  Building,
+  Circuit,
+  Deficiency,
+  DeficiencyEntry,
+  Inspection,
+  Membership,
+  Organisation,
+  OwnerGrant,
+  Panel,
+  Reading,
+  TripEvent,
+  User,
+} from '../entities';
 import { serverStamp } from './clock';
 
 /** Every field of a seeded row gets the same stamp, as if one device had typed it all at once. */
@@ -36,6 +51,7 @@ export async function seedDemo(ds: DataSource): Promise<boolean> {
       await em.insert(Membership, { id: uuidv7(), userId: id, organisationId, role: u.role });
     }
 
+    const seeded = new Map<string, { buildingId: string; panelIds: Map<string, string>; circuitIds: Map<string, string> }>();
     for (const b of DEMO_BUILDINGS) {
       const hlc = serverStamp();
       const buildingId = uuidv7();
@@ -48,6 +64,8 @@ export async function seedDemo(ds: DataSource): Promise<boolean> {
         await em.insert(OwnerGrant, { id: uuidv7(), userId: userIds.get('owner')!, buildingId });
       }
       const panelIds = new Map(b.panels.map((p) => [p.key, uuidv7()]));
+      const circuitIds = new Map<string, string>();
+      seeded.set(b.key, { buildingId, panelIds, circuitIds });
       // parents first so the fed-from foreign key always points at an inserted row
       const ordered = [...b.panels].sort(
         (x, y) => depth(b.panels, x.key) - depth(b.panels, y.key),
@@ -70,11 +88,121 @@ export async function seedDemo(ds: DataSource): Promise<boolean> {
           buildingId,
           ...stamped({ ...c, feedsPanelId: feedsPanelKey ? panelIds.get(feedsPanelKey)! : null }, hlc),
         }));
+        rows.forEach((row) => circuitIds.set(`${p.key}:${row.position}`, row.id));
         if (rows.length) await em.insert(Circuit, rows);
       }
     }
+    const home = seeded.get(DEMO_RECORD.buildingKey)!;
+    await seedRecord(em, home, userIds);
   });
   return true;
+}
+
+/** The demo's inspections, readings, trips and deficiencies (DEMO_RECORD), dated from today. */
+async function seedRecord(
+  em: EntityManager,
+  home: { buildingId: string; panelIds: Map<string, string>; circuitIds: Map<string, string> },
+  userIds: Map<string, string>,
+) {
+  const hlc = serverStamp();
+  const r = DEMO_RECORD;
+  const panelId = home.panelIds.get(r.panelKey)!;
+  const circuitAt = (position: number | null, panelKey = r.panelKey) =>
+    position === null ? null : home.circuitIds.get(`${panelKey}:${position}`)!;
+  const day = (daysAgo: number) => new Date(Date.now() - daysAgo * 86_400_000);
+  const isoDay = (daysAgo: number) => day(daysAgo).toISOString().slice(0, 10);
+  const nameOf = (role: string) => DEMO_USERS.find((u) => u.role === role)!.name;
+  const base = { buildingId: home.buildingId };
+
+  const inspectionIds = new Map<string, string>();
+  for (const i of r.inspections) {
+    const id = uuidv7();
+    inspectionIds.set(i.key, id);
+    const signed = i.signed
+      ? { signedAt: day(i.daysAgo), signedBy: userIds.get(i.by)!, signedByName: nameOf(i.by) }
+      : { signedAt: null, signedBy: null, signedByName: null };
+    await em.insert(Inspection, {
+      id,
+      ...base,
+      inspectorId: userIds.get(i.by)!,
+      inspectorName: nameOf(i.by),
+      ...signed,
+      ...stamped(
+        { kind: i.kind, panelIds: [panelId], performedOn: isoDay(i.daysAgo), ambientC: i.ambientC, loadPct: i.loadPct, notes: i.notes },
+        hlc,
+      ),
+    } as never);
+  }
+  const readingIds = new Map<string, string>();
+  for (const { inspectionKey, key, position, ...fields } of r.readings) {
+    const id = uuidv7();
+    readingIds.set(key, id);
+    await em.insert(Reading, {
+      id,
+      ...base,
+      ...stamped({ inspectionId: inspectionIds.get(inspectionKey)!, panelId, circuitId: circuitAt(position), ...fields }, hlc),
+    } as never);
+  }
+  for (const t of r.trips) {
+    const occurredAt = day(t.daysAgo);
+    occurredAt.setUTCHours(t.hour, 0, 0, 0);
+    await em.insert(TripEvent, {
+      id: uuidv7(),
+      ...base,
+      ...stamped({ panelId, circuitId: circuitAt(t.position)!, occurredAt, loadA: t.loadA, circumstances: t.circumstances }, hlc),
+    } as never);
+  }
+  const raisedDaysAgo = 20;
+  for (const d of r.deficiencies) {
+    const id = uuidv7();
+    const dPanel = d.panelKey ? home.panelIds.get(d.panelKey)! : panelId;
+    const fields = {
+      panelId: dPanel,
+      circuitId: circuitAt(d.position, d.panelKey),
+      inspectionId: d.inspectionKey ? inspectionIds.get(d.inspectionKey)! : null,
+      readingId: d.readingKey ? readingIds.get(d.readingKey)! : null,
+      source: d.source,
+      check: d.check ?? null,
+      title: d.title,
+      description: d.description,
+      priority: d.priority,
+      priorityReason: '',
+      dueOn: dueOnFor(d.priority, isoDay(raisedDaysAgo)),
+      status: d.status,
+      assigneeId: d.assignTo ? userIds.get(d.assignTo)! : null,
+      repairNote: '',
+      deferReason: d.deferReason ?? '',
+      reviewOn: d.reviewInDays ? isoDay(-d.reviewInDays) : null,
+      acceptedAt: null,
+    };
+    await em.insert(Deficiency, {
+      id,
+      ...base,
+      raisedBy: userIds.get('inspector')!,
+      raisedByName: nameOf('inspector'),
+      ...stamped(fields, hlc),
+    } as never);
+    const entry = (kind: 'change', text: string, changes: Record<string, [unknown, unknown]>, role: string, daysAgo: number) =>
+      em.insert(DeficiencyEntry, {
+        id: uuidv7(),
+        ...base,
+        deficiencyId: id,
+        kind,
+        text,
+        changes,
+        userId: userIds.get(role)!,
+        userName: nameOf(role),
+        at: day(daysAgo),
+        ...stamped({}, hlc),
+      } as never);
+    await entry('change', 'raised', { title: [null, d.title], priority: [null, d.priority], status: [null, 'open'] }, 'inspector', raisedDaysAgo);
+    if (d.status === 'scheduled') {
+      await entry('change', '', { status: ['open', 'scheduled'], assigneeId: [null, fields.assigneeId] }, 'electrician', 18);
+    }
+    if (d.status === 'deferred') {
+      await entry('change', '', { status: ['open', 'deferred'], deferReason: ['', d.deferReason], reviewOn: [null, fields.reviewOn] }, 'owner', 10);
+    }
+  }
 }
 
 function depth(panels: { key: string; fedFromPanelKey: string | null }[], key: string): number {
