@@ -18,6 +18,7 @@ import { installOnlineDetection } from '@/lib/online';
 import { waitForOutboxLock } from '@/lib/tab-lock';
 import { makeQueryClient } from '@/lib/query-client';
 import { configureSync, resumeOutbox } from '@/lib/sync';
+import { forgetDevicePhotos } from '@/hooks/use-photos';
 import { SCHEMA_VERSION } from '@/shared/sync';
 
 SplashScreen.preventAutoHideAsync().catch(() => undefined);
@@ -54,7 +55,7 @@ export default function RootLayout() {
         setUserId(id);
       },
       forget: async () => {
-        if (userId) await wipeUserCache(userId);
+        if (userId) await Promise.all([wipeUserCache(userId), forgetDevicePhotos(userId)]);
         await setActiveUser(null);
         setUserId(null);
       },

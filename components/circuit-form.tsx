@@ -14,6 +14,7 @@ import {
   type LoadKind,
 } from '@/shared/domain';
 import { circuitCreateBody, fieldErrors, type Circuit, type CircuitFields, type Panel } from '@/shared/schemas';
+import { BandPicker } from './band-picker';
 import { Button } from './button';
 import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-format';
 import { ChoiceField, ReadOnlyField, TextField, ToggleField } from './fields';
@@ -82,6 +83,7 @@ interface Draft {
   status: CircuitStatus;
   handleLock: boolean;
   notes: string;
+  bandId: string | null;
 }
 
 function toDraft(c: CircuitFields): Draft {
@@ -101,6 +103,7 @@ function toDraft(c: CircuitFields): Draft {
     status: c.status,
     handleLock: c.handleLock,
     notes: c.notes,
+    bandId: c.bandId,
   };
 }
 
@@ -122,6 +125,8 @@ function fromDraft(d: Draft, base: CircuitFields): CircuitFields {
     status: d.status,
     handleLock: d.handleLock,
     notes: d.notes,
+    // a band belongs to a breaker: a space has none
+    bandId: d.status === 'space' ? null : d.bandId,
   };
 }
 
@@ -298,6 +303,14 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
             onChange={set('insulationTempC')}
           />
           <ToggleField label="Handle lock fitted" value={draft.handleLock} onChange={set('handleLock')} />
+          {numberOrNull(draft.ratingA) ? (
+            <BandPicker
+              ratingA={numberOrNull(draft.ratingA) as number}
+              value={draft.bandId}
+              onChange={set('bandId')}
+              error={errors.bandId}
+            />
+          ) : null}
         </>
       )}
       <TextField label="Notes" value={draft.notes} onChangeText={set('notes')} multiline error={errors.notes} />

@@ -1,6 +1,7 @@
 import { useRouter } from 'expo-router';
 import { Pressable, StyleSheet } from 'react-native';
 import { useOnline, useOutbox } from '@/hooks/use-outbox';
+import { useWaitingPhotos } from '@/hooks/use-photos';
 import { useSyncReview } from '@/hooks/use-register';
 import { Text } from './text';
 import { colours, MIN_TOUCH, radii, space } from './theme';
@@ -15,7 +16,9 @@ export function SyncStatus() {
   const outbox = useOutbox();
   const review = useSyncReview();
   const needsReview = review.conflicts.length + review.refused.length;
-  const waiting = outbox.length;
+  // mounted in every header for the whole session: this also keeps the photo uploads going
+  const photos = useWaitingPhotos().photos.length;
+  const waiting = outbox.length + photos;
   const parts: string[] = [];
   if (!online) parts.push('○ offline');
   if (waiting > 0) parts.push(`${online ? '↑ ' : ''}on this device (${waiting})`);

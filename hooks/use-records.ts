@@ -61,6 +61,8 @@ export function useBands() {
 export function useSaveBand() {
   const queryClient = useQueryClient();
   return useMutation({
+    // fail at once with no signal (the default would wait for it): the form keeps the draft
+    networkMode: 'always',
     mutationFn: (body: BandCreateBody & { id?: string }) => api.post<{ band: Band }>('/bands', body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: keys.bands }),
   });
@@ -86,11 +88,13 @@ export interface AssessedReading {
 export function assessOnDevice(copy: BuildingCopy, reading: Reading, bands: readonly Band[] | undefined): Assessment {
   const circuit = reading.circuitId ? copy.circuits[reading.circuitId] : null;
   const bandId = reading.bandId ?? circuit?.bandId ?? null;
-  return assessReading(reading, {
-    circuit,
-    panel: copy.panels[reading.panelId],
-    band: bandId ? bands?.find((b) => b.id === bandId) : null,
-  });
+  const context = { circuit, panel: copy.panels[reading.panelId] };
+  try {
+    return assessReading(reading, { ...context, band: bandId ? bands?.find((b) => b.id === bandId) : null });
+  } catch {
+    // a band the computations cannot use (stored before the schema tightened): judge without it
+    return assessReading(reading, { ...context, band: null });
+  }
 }
 
 export function useInspections(buildingId: string) {

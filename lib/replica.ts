@@ -252,6 +252,8 @@ function applyRecordMutation(replica: Replica, m: Mutation, userId: string | nul
   return withList(replica, m.buildingId, list, (rows) => {
     const all = rows as Record<string, object>;
     if (verb === 'create') {
+      // laid again after a pull that already brought the server's row: the server's stays
+      if ((all[m.entityId] as { version?: number } | undefined)?.version) return rows;
       const row = { ...f, ...createdColumns(kind, m, me), id: m.entityId, buildingId: m.buildingId, version: 0, ...localColumns(m, userId) };
       return { ...all, [m.entityId]: row } as RecordCopy[typeof list];
     }

@@ -387,7 +387,8 @@ export const bandPointSchema = z
   .object({
     /** test current as a multiple of the rating */
     multiple: num('').positive('must be more than 0').max(100),
-    minS: num('seconds').min(0, 'cannot be negative').max(100000),
+    /** log–log interpolation needs times above 0 (shared/calc/trip.ts tripBand) */
+    minS: num('seconds').positive('must be more than 0 s').max(100000),
     maxS: num('seconds').positive('must be more than 0').max(100000),
   })
   .refine((p) => p.minS <= p.maxS, { path: ['maxS'], message: 'the maximum time is below the minimum' });

@@ -1,3 +1,4 @@
+import { useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
 import { ReadOnlyField } from '@/components/fields';
@@ -6,19 +7,21 @@ import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colours, radii, space } from '@/components/theme';
 import { useOutbox } from '@/hooks/use-outbox';
+import { useWaitingPhotos } from '@/hooks/use-photos';
 import { useSession, useSignOut } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
 
 export default function Me() {
   const session = useSession();
+  const router = useRouter();
   const signOut = useSignOut();
-  const unsynced = useOutbox().length;
+  const unsynced = useOutbox().length + useWaitingPhotos().photos.length;
   const me = session.data;
   const onSignOut = async () => {
     if (unsynced > 0) {
       const ok = await confirmAction(
         'Changes not yet synced',
-        `${unsynced} change${unsynced === 1 ? ' is' : 's are'} still only on this device. Signing out deletes ${unsynced === 1 ? 'it' : 'them'}. Sync first if you can.`,
+        `${unsynced} change${unsynced === 1 ? ' is' : 's are'} (photos included) still only on this device. Signing out deletes ${unsynced === 1 ? 'it' : 'them'}. Sync first if you can.`,
         'Sign out and delete',
       );
       if (!ok) return;
@@ -35,6 +38,7 @@ export default function Me() {
           <ReadOnlyField key={m.organisationId} label={m.organisationName} value={m.role} />
         ))}
       </View>
+      <Button label="Band library" tone="secondary" onPress={() => router.push('/bands')} testID="band-library" />
       <SafetyNote />
       <Button label="Sign out" tone="secondary" onPress={onSignOut} busy={signOut.isPending} testID="sign-out" />
     </Screen>

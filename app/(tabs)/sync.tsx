@@ -1,6 +1,7 @@
 import { StyleSheet, View } from 'react-native';
 import { useSyncExternalStore } from 'react';
 import { Button } from '@/components/button';
+import { PhotosWaiting } from '@/components/photos';
 import { Screen } from '@/components/screen';
 import { Text } from '@/components/text';
 import { colours, radii, space } from '@/components/theme';
@@ -8,6 +9,7 @@ import { stampTime, timeAgo } from '@/components/time-ago';
 import { canRestore, useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
 import { useSyncReview } from '@/hooks/use-register';
 import { getPersistProblem, subscribePersistProblem } from '@/lib/storage-health';
+import { recordsOf, type BuildingCopy } from '@/lib/replica';
 import type { Conflict } from '@/shared/sync';
 
 const show = (value: unknown) =>
@@ -57,6 +59,8 @@ export default function Sync() {
         )}
       </Section>
 
+      <PhotosWaiting />
+
       <Section title={`Needs review (${needsReview})`} testID="needs-review">
         {needsReview === 0 && <Text tone="soft">No conflicts or refused changes.</Text>}
         {data.conflicts.map(({ conflict, copy }) => (
@@ -81,14 +85,25 @@ export default function Sync() {
   );
 }
 
-function whereOf(conflict: Conflict, copy: { panels: Record<string, { tag: string }>; circuits: Record<string, { panelId: string; position: number }> }) {
+function whereOf(conflict: Conflict, copy: BuildingCopy) {
   if (conflict.entity === 'circuit') {
     const circuit = copy.circuits[conflict.entityId];
     return circuit ? `${copy.panels[circuit.panelId]?.tag ?? 'Panel'} · position ${circuit.position}` : 'A deleted circuit';
   }
   if (conflict.entity === 'panel') return `Panel ${copy.panels[conflict.entityId]?.tag ?? ''}`;
-  return 'Building';
+  if (conflict.entity === 'building') return 'Building';
+  const deficiency = recordsOf(copy, 'deficiencies')[conflict.entityId];
+  if (deficiency) return `Deficiency · ${deficiency.title}`;
+  return RECORD_WORDS[conflict.entity] ?? 'Record';
 }
+
+const RECORD_WORDS: Record<string, string> = {
+  inspection: 'An inspection',
+  reading: 'A reading',
+  deficiency: 'A deficiency',
+  trip: 'A recorded trip',
+  photo: 'A photo',
+};
 
 function ConflictCard({ conflict, where }: { conflict: Conflict; where: string }) {
   const { keepTheirs, restoreMine } = useConflictActions();

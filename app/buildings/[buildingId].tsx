@@ -1,6 +1,8 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
+import { BuildingDeficiencies } from '@/components/deficiency-building';
 import { FeederTree } from '@/components/feeder-tree';
+import { BuildingInspections } from '@/components/inspection-entry';
 import { Screen } from '@/components/screen';
 import { EmptyState, replicaGate } from '@/components/states';
 import { Text } from '@/components/text';
@@ -32,6 +34,8 @@ export default function BuildingScreen() {
             onOpen={(panel) => router.push({ pathname: '/panels/[panelId]', params: { panelId: panel.id } })}
           />
         )}
+        <BuildingInspections buildingId={building.id} />
+        <BuildingDeficiencies buildingId={building.id} />
       </Screen>
     </>
   );

@@ -2,6 +2,7 @@ import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
+import { InspectPanelButton } from '@/components/inspection-entry';
 import { PanelLoadSummary } from '@/components/panel-load';
 import { PanelProblems } from '@/components/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/panel-schedule';
@@ -54,6 +55,7 @@ export default function PanelScreen() {
               <Text variant="small" tone="faint">{[panel.maker, panel.model].filter(Boolean).join(' — ')}</Text>
             )}
           </View>
+          <InspectPanelButton role={building.role} buildingId={building.id} panelId={panel.id} />
           {canEdit && (
             <Button
               label="Edit panel"

@@ -1,6 +1,7 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { CircuitDetails, CircuitForm } from '@/components/circuit-form';
 import { Screen } from '@/components/screen';
+import { CircuitRecord } from '@/components/trip-record';
 import { EmptyState, replicaGate } from '@/components/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
@@ -23,6 +24,7 @@ export default function CircuitScreen() {
       <Screen>
         <Stack.Screen options={{ title }} />
         <CircuitDetails circuit={circuit} panel={panel} />
+        <CircuitRecord circuitId={circuit.id} panelId={panel.id} />
       </Screen>
     );
   }
@@ -50,6 +52,7 @@ export default function CircuitScreen() {
           router.back();
         }}
       />
+      <CircuitRecord circuitId={circuit.id} panelId={panel.id} />
     </Screen>
   );
 }
