@@ -430,7 +430,7 @@ export const bandsResponse = z.object({ bands: z.array(bandSchema) });
 
 /** Days to repair by priority (our defaults: 7 / 30 / 90 / 365 [CP]). */
 export const DEFAULT_DUE_DAYS: Record<Priority, number> = { 1: 7, 2: 30, 3: 90, 4: 365 };
-const days = num('days').int('whole days').min(0).max(3650);
+const days = num('days').int('whole days').min(0, 'cannot be negative').max(3650, 'at most 3650 days');
 export const organisationSettingsSchema = z.object({
   dueDays: z.object({ 1: days, 2: days, 3: days, 4: days }),
   /** keep GPS and other location metadata in uploaded photos (off: it is stripped) */

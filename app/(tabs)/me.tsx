@@ -8,6 +8,7 @@ import { Text } from '@/components/text';
 import { colours, radii, space } from '@/components/theme';
 import { useOutbox } from '@/hooks/use-outbox';
 import { useWaitingPhotos } from '@/hooks/use-photos';
+import { OrganisationSettingsCard } from '@/components/organisation-settings';
 import { useSession, useSignOut } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
 
@@ -38,6 +39,11 @@ export default function Me() {
           <ReadOnlyField key={m.organisationId} label={m.organisationName} value={m.role} />
         ))}
       </View>
+      {me.memberships
+        .filter((m) => m.role === 'admin')
+        .map((m) => (
+          <OrganisationSettingsCard key={m.organisationId} membership={m} />
+        ))}
       <Button label="Band library" tone="secondary" onPress={() => router.push('/bands')} testID="band-library" />
       <SafetyNote />
       <Button label="Sign out" tone="secondary" onPress={onSignOut} busy={signOut.isPending} testID="sign-out" />

@@ -120,3 +120,23 @@ test('offline: a P1 thermal reading raises a deficiency with a photo; after an o
   await owner.screenshot({ path: `${ARTIFACTS}/record-owner-deficiency-wide.png`, fullPage: true });
   await ownerContext.close();
 });
+
+test('an admin sets the days to repair by priority; a bad number is named, a saved one applies to the organisation', async ({ page }) => {
+  await signIn(page, 'admin');
+  await page.goto('/me');
+  const card = page.getByTestId('organisation-settings');
+  await expect(card.getByTestId('setting-due-1')).toHaveValue('7');
+  await card.getByTestId('setting-due-1').fill('-2');
+  await card.getByTestId('save-settings').click();
+  await expect(card).toContainText('cannot be negative');
+  await card.getByTestId('setting-due-1').fill('3');
+  await card.getByTestId('save-settings').click();
+  await expect(card.getByTestId('settings-saved')).toBeVisible();
+  const [org] = await query<{ settings: { dueDays: Record<string, number> } }>('SELECT settings FROM organisation LIMIT 1');
+  expect(org.settings.dueDays['1']).toBe(3);
+  await page.screenshot({ path: `${ARTIFACTS}/settings-phone.png`, fullPage: true });
+  // put the defaults back for the other tests
+  await card.getByTestId('setting-due-1').fill('7');
+  await card.getByTestId('save-settings').click();
+  await expect.poll(async () => (await query<{ settings: { dueDays: Record<string, number> } }>('SELECT settings FROM organisation LIMIT 1'))[0].settings.dueDays['1']).toBe(7);
+});
