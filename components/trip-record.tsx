@@ -140,6 +140,31 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
   );
 }
 
+/**
+ * A line at the top of the editor's circuit screen, whose form is long: what the record below
+ * holds, and the termination warning when there is one. Nothing when there is no record.
+ */
+export function CircuitRecordSummary({ circuitId }: { circuitId: string }) {
+  const record = useCircuitRecord(circuitId).data;
+  if (!record) return null;
+  const { trips, readings, deficiencies, findings } = record;
+  const open = deficiencies.filter((d) => isOutstanding(d.status)).length;
+  if (trips.length + readings.length + open === 0) return null;
+  const parts = [
+    trips.length ? `${trips.length} recorded trip${trips.length === 1 ? '' : 's'}` : null,
+    readings.length ? `${readings.length} reading${readings.length === 1 ? '' : 's'}` : null,
+    open ? `${open} open deficienc${open === 1 ? 'y' : 'ies'}` : null,
+  ].filter(Boolean);
+  return (
+    <View style={[styles.findings, findings?.suspectTermination && styles.suspect]} testID="record-summary">
+      {findings?.suspectTermination ? (
+        <Text variant="strong">⚠ Trips well below rating with a hot or loose termination: suspect the termination, not the breaker.</Text>
+      ) : null}
+      <Text variant="small">{parts.join(' · ')}: see the record below the form.</Text>
+    </View>
+  );
+}
+
 /** What the trips and the termination readings say together, in words. */
 function TripFindingsBox({ findings, circuit, tripCount }: { findings: NuisanceTripFindings | null; circuit: Circuit; tripCount: number }) {
   if (!findings) {

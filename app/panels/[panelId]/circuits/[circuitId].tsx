@@ -1,7 +1,7 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { CircuitDetails, CircuitForm } from '@/components/circuit-form';
 import { Screen } from '@/components/screen';
-import { CircuitRecord } from '@/components/trip-record';
+import { CircuitRecord, CircuitRecordSummary } from '@/components/trip-record';
 import { EmptyState, replicaGate } from '@/components/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
@@ -31,6 +31,7 @@ export default function CircuitScreen() {
   return (
     <Screen>
       <Stack.Screen options={{ title }} />
+      <CircuitRecordSummary circuitId={circuit.id} />
       <CircuitForm
         key={circuit.id}
         panel={panel}
