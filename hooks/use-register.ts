@@ -85,3 +85,17 @@ export function useSyncReview() {
     synced: log.data?.synced ?? [],
   };
 }
+
+/** Every live circuit of a building with the panels, for searching its directory. */
+export function useBuildingDirectory(buildingId: string) {
+  return useReplica(
+    useCallback(
+      (r: Replica) => {
+        const copy = r.buildings[buildingId];
+        if (!copy) return null;
+        return { panels: Object.values(copy.panels).sort(byTag), circuits: Object.values(copy.circuits) };
+      },
+      [buildingId],
+    ),
+  );
+}
