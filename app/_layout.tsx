@@ -184,6 +184,7 @@ function RootStack() {
         <Stack.Screen name="panels/[panelId]/index" options={{ title: 'Panel schedule' }} />
         <Stack.Screen name="panels/[panelId]/edit" options={{ title: 'Edit panel' }} />
         <Stack.Screen name="panels/[panelId]/new-circuit" options={{ title: 'Add circuit' }} />
+        <Stack.Screen name="panels/[panelId]/import" options={{ title: 'Import a schedule' }} />
         <Stack.Screen name="panels/[panelId]/circuits/[circuitId]" options={{ title: 'Circuit' }} />
         <Stack.Screen name="inspections/new" options={{ title: 'New inspection' }} />
         <Stack.Screen name="inspections/[inspectionId]/index" options={{ title: 'Inspection' }} />
@@ -193,9 +194,13 @@ function RootStack() {
         <Stack.Screen name="deficiencies/new" options={{ title: 'New deficiency' }} />
         <Stack.Screen name="deficiencies/[deficiencyId]" options={{ title: 'Deficiency' }} />
         <Stack.Screen name="trips/new" options={{ title: 'Record a trip' }} />
+        <Stack.Screen name="users/index" options={{ title: 'Users and access' }} />
       </Stack.Protected>
       <Stack.Protected guard={!signedIn}>
         <Stack.Screen name="sign-in" options={{ headerShown: false }} />
+        <Stack.Screen name="forgot-password" options={{ headerShown: false }} />
+        <Stack.Screen name="invitation/[token]" options={{ headerShown: false }} />
+        <Stack.Screen name="reset-password/[token]" options={{ headerShown: false }} />
       </Stack.Protected>
       <Stack.Screen name="+not-found" options={{ title: 'Not found' }} />
     </Stack>

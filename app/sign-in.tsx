@@ -1,3 +1,4 @@
+import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
@@ -60,6 +61,9 @@ export default function SignIn() {
           </Text>
         )}
         <Button label="Sign in" onPress={submit} busy={signIn.isPending} testID="sign-in-submit" />
+        <Link href="/forgot-password" style={styles.forgot} testID="forgot-password-link">
+          <Text tone="copper">Forgot your password?</Text>
+        </Link>
       </View>
       <Text variant="small" tone="faint">
         Demo: admin@, electrician@, inspector@ or owner@ampwright.test with the password ampwright-demo.
@@ -70,6 +74,7 @@ export default function SignIn() {
 
 const styles = StyleSheet.create({
   brand: { gap: space.xs, marginTop: space.xxl },
+  forgot: { minHeight: 44, paddingVertical: space.md },
   card: {
     gap: space.lg,
     padding: space.lg,

@@ -197,3 +197,20 @@ const styles = StyleSheet.create({
   rowTop: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
   pressed: { opacity: 0.75 },
 });
+
+export type FindingsView = 'deficiencies' | 'maintenance';
+
+/** Deficiencies or the maintenance due list (components/maintenance-due.tsx), each with its word. */
+export function FindingsViewSwitch({ value, onChange }: { value: FindingsView; onChange: (v: FindingsView) => void }) {
+  return (
+    <ChoiceField
+      label="Show"
+      value={value}
+      onChange={onChange}
+      choices={[
+        { value: 'deficiencies', label: 'Deficiencies' },
+        { value: 'maintenance', label: 'Maintenance due' },
+      ]}
+    />
+  );
+}

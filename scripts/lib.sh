@@ -63,6 +63,14 @@ ensure_chromium() {
   apt_install chromium
 }
 
+# The document tests read the printed PDFs back: pdftotext for their words, pdftoppm to rasterise
+# a page so the QR code can be decoded (Debian poppler-utils).
+ensure_pdf_tools() {
+  command -v pdftotext >/dev/null && command -v pdftoppm >/dev/null && return 0
+  log "Installing Debian's poppler-utils (pdftotext, pdftoppm) for the document tests…"
+  apt_install poppler-utils
+}
+
 # Where a cluster's data lives. PostgreSQL refuses to run as root, so as root the cluster runs as
 # the postgres user, whose home cannot reach a checkout under /root: use a per-checkout folder under
 # /var/tmp instead. A normal user keeps it in the git-ignored .data/ of the checkout.
@@ -173,6 +181,56 @@ s3_down() {
   for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
   rm -f "$dir/s3rver.pid"
   log "Stopped the local S3 '$1'"
+}
+
+# ---------- e-mail: a local MailDev (scripts/mail-server.ts) ----------
+# Catches every message the server sends; its inbox is a web page and a REST API (GET /email).
+# Data, pid file and log beside the PostgreSQL cluster of the same name (`<cluster>-mail`).
+mail_dir() { echo "$(pg_datadir "$1")-mail"; }
+
+mail_pid() {
+  local pidfile pid
+  pidfile="$(mail_dir "$1")/maildev.pid"
+  [ -f "$pidfile" ] || return 0
+  pid="$(cat "$pidfile")"
+  if [ -n "$pid" ] && tr '\0' ' ' <"/proc/$pid/cmdline" 2>/dev/null | grep -q "scripts/mail-server.ts"; then
+    echo "$pid"
+  fi
+}
+
+# mail_up NAME SMTP_PORT WEB_PORT [fresh]: start (if needed) the fake SMTP server with its inbox on
+# 127.0.0.1, wait until the inbox answers, and export the SMTP_* variables (server/config.ts) and
+# MAIL_INBOX_URL (the inbox's address, which the API tests read).
+mail_up() {
+  local name="$1" smtp="$2" web="$3" fresh="${4:-}"
+  local dir; dir="$(mail_dir "$name")"
+  if [ "$fresh" = fresh ]; then mail_down "$name"; rm -rf "$dir"; fi
+  mkdir -p "$dir"
+  if [ -z "$(mail_pid "$name")" ]; then
+    rm -f "$dir/maildev.pid"
+    setsid node --import tsx scripts/mail-server.ts "$smtp" "$web" "$dir/mail" "$dir/maildev.pid" \
+      >"$dir/maildev.log" 2>&1 </dev/null &
+  fi
+  local code=000
+  for _ in $(seq 1 80); do
+    code="$(curl -s -o /dev/null -w '%{http_code}' "http://127.0.0.1:$web/email" || true)"
+    [ "$code" = 200 ] && [ -n "$(mail_pid "$name")" ] && break
+    sleep 0.25
+  done
+  if [ "$code" != 200 ] || [ -z "$(mail_pid "$name")" ]; then
+    tail -20 "$dir/maildev.log" >&2 || true
+    die "the local mail server '$name' did not answer on 127.0.0.1:$web (log above; is the port taken?)"
+  fi
+  export SMTP_HOST=127.0.0.1 SMTP_PORT="$smtp" SMTP_SECURE=0 MAIL_INBOX_URL="http://127.0.0.1:$web"
+}
+
+mail_down() {
+  local pid dir; pid="$(mail_pid "$1")"; dir="$(mail_dir "$1")"
+  [ -n "$pid" ] || return 0
+  kill "$pid" 2>/dev/null || true
+  for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
+  rm -f "$dir/maildev.pid"
+  log "Stopped the local mail server '$1'"
 }
 
 # Rebuild the web bundle only when a client source changed since the last build.

@@ -7,6 +7,11 @@ ensure_perl
 pg_up dev "${AMPWRIGHT_PG_PORT:-54329}"
 # photos go to object storage: a local fake S3 unless S3_BUCKET names a real one
 if [ -z "${S3_BUCKET:-}" ]; then s3_up dev "${AMPWRIGHT_S3_PORT:-54330}"; fi
+# e-mail goes to a local inbox (MailDev) unless SMTP_HOST names a real relay
+if [ -z "${SMTP_HOST:-}" ]; then
+  mail_up dev "${AMPWRIGHT_SMTP_PORT:-54331}" "${AMPWRIGHT_MAIL_WEB_PORT:-54332}"
+  log "E-mail inbox (nothing leaves this machine): $MAIL_INBOX_URL/"
+fi
 log "Running migrations…"
 tsx_server scripts/db.ts migrate
 tsx_server scripts/db.ts seed-if-empty

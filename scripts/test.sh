@@ -6,14 +6,18 @@ ensure_node_modules
 ensure_postgres
 ensure_perl
 ensure_chromium
+ensure_pdf_tools
 
 TEST_PG_PORT="${AMPWRIGHT_TEST_PG_PORT:-54339}"
 TEST_S3_PORT="${AMPWRIGHT_TEST_S3_PORT:-54340}"
+TEST_SMTP_PORT="${AMPWRIGHT_TEST_SMTP_PORT:-54341}"
+TEST_MAIL_WEB_PORT="${AMPWRIGHT_TEST_MAIL_WEB_PORT:-54342}"
 E2E_PORT="${AMPWRIGHT_E2E_PORT:-8090}"
 server_pid=""
 cleanup() {
   [ -n "$server_pid" ] && kill "$server_pid" 2>/dev/null && wait "$server_pid" 2>/dev/null
   s3_down test
+  mail_down test
   pg_down test
 }
 trap cleanup EXIT
@@ -32,6 +36,8 @@ suite "lint (eslint)" eslint .
 pg_up test "$TEST_PG_PORT" fresh
 # a fresh fake S3 for the photo tests and the browser suite's server (exports S3_*)
 s3_up test "$TEST_S3_PORT" fresh
+# a fresh fake SMTP server with its inbox for the e-mail tests (exports SMTP_*, MAIL_INBOX_URL)
+mail_up test "$TEST_SMTP_PORT" "$TEST_MAIL_WEB_PORT" fresh
 export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"
 tsx_server scripts/db.ts migrate >/dev/null
 tsx_server scripts/db.ts seed-if-empty >/dev/null

@@ -9,16 +9,19 @@ import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
 import { errorHandler } from './http/error-handler';
 import { requestLog } from './http/request-log';
+import { accessRouter } from './routes/access';
+import { documentsRouter } from './routes/documents';
 import { photosRouter } from './routes/photos';
 import { recordsRouter } from './routes/records';
 import { registerRouter } from './routes/register';
 import { syncRouter } from './routes/sync';
 import { closePhotoTools } from './services/photo-image';
+import { type MailConfig } from './services/mail';
 import { PhotoStore, type PhotoStoreConfig } from './services/photo-store';
 
 export interface AppDeps {
   dataSource: DataSource;
-  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY'> & PhotoStoreConfig;
+  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY' | 'PUBLIC_URL'> & PhotoStoreConfig & MailConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
 }
@@ -65,9 +68,11 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   // (and so are the photos)
   app.use('/api/sync', syncRouter(dataSource));
   const photoStore = new PhotoStore(config);
+  app.use('/api', accessRouter(dataSource, config, photoStore)); // public one-time links first
   app.use('/api/photos', photosRouter(dataSource, photoStore));
   app.use('/api', registerRouter(dataSource));
   app.use('/api', recordsRouter(dataSource));
+  app.use('/api', documentsRouter(dataSource, photoStore, config));
   app.use('/api', (_req, res) => {
     res.status(404).json({ error: { code: 'not_found', message: 'No such API route' } });
   });

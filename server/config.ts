@@ -13,6 +13,9 @@ const configSchema = z.object({
   /** behind a TLS-terminating proxy: trust its X-Forwarded-Proto so cookies get Secure */
   TRUST_PROXY: z.enum(['0', '1']).default('0'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
+  /** the address users open the app at, for links printed on paper (the directory's QR code);
+   * unset: the scheme and host of the request that asked for the document */
+  PUBLIC_URL: z.url({ error: 'a URL such as https://ampwright.example.net' }).optional(),
   // object storage for photos (server/services/photo-store.ts); outside production the local
   // fake's values below are the defaults
   /** an S3-compatible endpoint; leave it unset for AWS itself (the SDK derives it from the region) */
@@ -24,6 +27,17 @@ const configSchema = z.object({
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
   /** `1` for stores that want `endpoint/bucket/key` rather than `bucket.endpoint/key` */
   S3_FORCE_PATH_STYLE: z.enum(['0', '1']).default('0'),
+  // e-mail (server/services/mail.ts): outside production the local MailDev that `npm start` runs
+  /** the SMTP relay; unset in production means no e-mail can be sent (invitations answer 503) */
+  SMTP_HOST: z.string().min(1).optional(),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(587),
+  SMTP_USER: z.string().min(1).optional(),
+  SMTP_PASSWORD: z.string().min(1).optional(),
+  /** `1` for implicit TLS (usually port 465); `0` upgrades with STARTTLS when the relay offers it */
+  SMTP_SECURE: z.enum(['0', '1']).default('0'),
+  MAIL_FROM: z.string().min(3).default('Ampwright <no-reply@ampwright.invalid>'),
+  /** where the app is reached, for the links in e-mails; defaults to http://HOST:PORT */
+  APP_URL: z.url({ error: 'a URL such as https://ampwright.example.net' }).optional(),
 }).refine((c) => (c.S3_ACCESS_KEY_ID === undefined) === (c.S3_SECRET_ACCESS_KEY === undefined), {
   path: ['S3_SECRET_ACCESS_KEY'],
   message: 'set S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY together, or neither',
@@ -40,6 +54,9 @@ export const LOCAL_S3_DEFAULTS = {
   S3_ACCESS_KEY_ID: 'S3RVER',
   S3_SECRET_ACCESS_KEY: 'S3RVER',
   S3_FORCE_PATH_STYLE: '1',
+  // the local MailDev of `npm start` (scripts/mail-server.ts, inbox on http://127.0.0.1:54332/)
+  SMTP_HOST: '127.0.0.1',
+  SMTP_PORT: '54331',
 } as const;
 
 export type Config = z.infer<typeof configSchema>;

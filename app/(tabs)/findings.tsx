@@ -9,9 +9,12 @@ import {
   filterSummary,
   FindingFiltersForm,
   FindingRow,
+  FindingsViewSwitch,
+  type FindingsView,
   PriorityCounts,
   type FindingFilters,
 } from '@/components/finding-list';
+import { MaintenanceDueAcross } from '@/components/maintenance-due';
 import { Screen } from '@/components/screen';
 import { EmptyState, replicaGate } from '@/components/states';
 import { Text } from '@/components/text';
@@ -36,6 +39,7 @@ export default function Findings() {
   }
   const [showFilters, setShowFilters] = useState(false);
   const [selectedId, setSelectedId] = useState<string | null>(null);
+  const [view, setView] = useState<FindingsView>('deficiencies');
 
   const gate = replicaGate(query, 'findings');
   if (gate || !query.data) return gate;
@@ -44,6 +48,15 @@ export default function Findings() {
   const { shown, counts } = applyFilters(rows, filters, today);
   const buildingName = (id: string) => buildings.find((b) => b.id === id)?.name ?? 'a building';
   const canRaise = buildings.some((b) => b.role === 'admin' || b.role === 'inspector');
+
+  if (view === 'maintenance') {
+    return (
+      <Screen>
+        <FindingsViewSwitch value={view} onChange={setView} />
+        <MaintenanceDueAcross />
+      </Screen>
+    );
+  }
 
   if (rows.length === 0) {
     return (
@@ -54,7 +67,9 @@ export default function Findings() {
             ? 'Record an inspection from a panel to raise one, or raise one by hand from a building’s page.'
             : 'Record an inspection from a panel to raise one. Deficiencies the inspectors raise in your buildings appear here.'
         }
-      />
+      >
+        <FindingsViewSwitch value={view} onChange={setView} />
+      </EmptyState>
     );
   }
 
@@ -68,6 +83,7 @@ export default function Findings() {
 
   const list = (
     <View style={styles.list}>
+      <FindingsViewSwitch value={view} onChange={setView} />
       <PriorityCounts counts={counts} value={filters.priority} onChange={(priority) => setFilters({ ...filters, priority })} />
       <View style={styles.summary}>
         <Text variant="small" tone="soft" style={styles.summaryText} testID="finding-summary">

@@ -44,6 +44,9 @@ export default function Me() {
         .map((m) => (
           <OrganisationSettingsCard key={m.organisationId} membership={m} />
         ))}
+      {me.memberships.some((m) => m.role === 'admin') && (
+        <Button label="Users and access" tone="secondary" onPress={() => router.push('/users')} testID="users-and-access" />
+      )}
       <Button label="Band library" tone="secondary" onPress={() => router.push('/bands')} testID="band-library" />
       <SafetyNote />
       <Button label="Sign out" tone="secondary" onPress={onSignOut} busy={signOut.isPending} testID="sign-out" />

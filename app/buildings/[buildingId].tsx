@@ -1,8 +1,10 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import { BuildingDeficiencies } from '@/components/deficiency-building';
+import { DirectorySearch } from '@/components/directory-search';
 import { FeederTree } from '@/components/feeder-tree';
 import { BuildingInspections } from '@/components/inspection-entry';
+import { BuildingMaintenanceDue } from '@/components/maintenance-due';
 import { Screen } from '@/components/screen';
 import { EmptyState, replicaGate } from '@/components/states';
 import { Text } from '@/components/text';
@@ -25,6 +27,7 @@ export default function BuildingScreen() {
           {building.address ? <Text tone="soft">{building.address}</Text> : null}
           {building.notes ? <Text variant="small" tone="faint">{building.notes}</Text> : null}
         </View>
+        <DirectorySearch buildingId={building.id} />
         <Text variant="label" tone="soft">PANELS, AS THE POWER FLOWS</Text>
         {panels.length === 0 ? (
           <EmptyState title="No panels recorded" hint="Panels of this building will appear here, arranged by which panel feeds which." />
@@ -36,6 +39,7 @@ export default function BuildingScreen() {
         )}
         <BuildingInspections buildingId={building.id} />
         <BuildingDeficiencies buildingId={building.id} />
+        <BuildingMaintenanceDue buildingId={building.id} />
       </Screen>
     </>
   );

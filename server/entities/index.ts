@@ -5,7 +5,9 @@ import { CurveBand } from './curve-band';
 import { Deficiency } from './deficiency';
 import { DeficiencyEntry } from './deficiency-entry';
 import { Inspection } from './inspection';
+import { Invitation } from './invitation';
 import { Membership } from './membership';
+import { OneTimeToken } from './one-time-token';
 import { Organisation } from './organisation';
 import { OwnerGrant } from './owner-grant';
 import { Panel } from './panel';
@@ -23,7 +25,9 @@ export {
   Deficiency,
   DeficiencyEntry,
   Inspection,
+  Invitation,
   Membership,
+  OneTimeToken,
   Organisation,
   OwnerGrant,
   Panel,
@@ -50,4 +54,6 @@ export const entities = [
   DeficiencyEntry,
   TripEvent,
   Photo,
+  Invitation,
+  OneTimeToken,
 ];

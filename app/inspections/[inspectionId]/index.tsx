@@ -8,6 +8,7 @@ import { INSPECTION_KIND_LABELS } from '@/shared/records';
 import { InspectionHeader } from '@/components/inspection-header';
 import { InspectionPanel } from '@/components/inspection-panel';
 import { InspectionSignOff } from '@/components/inspection-signoff';
+import { ReportPdfButton, SendReportButton } from '@/components/print-button';
 import { SafetyNote } from '@/components/safety-note';
 import { Screen } from '@/components/screen';
 import { replicaGate } from '@/components/states';
@@ -95,6 +96,8 @@ export default function InspectionScreen() {
       <Stack.Screen options={{ title: INSPECTION_KIND_LABELS[inspection.kind] }} />
       <Screen wide={wide}>
         {header}
+        {!editing && <ReportPdfButton inspectionId={inspection.id} />}
+        {!editing && actions.canSign && <SendReportButton inspectionId={inspection.id} />}
         {wide ? (
           <View style={styles.columns}>
             <View style={styles.main}>{panelSections}</View>

@@ -2,10 +2,12 @@ import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/button';
+import { CsvButtons } from '@/components/csv-buttons';
 import { InspectPanelButton } from '@/components/inspection-entry';
 import { PanelLoadSummary } from '@/components/panel-load';
 import { PanelProblems } from '@/components/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/panel-schedule';
+import { PrintDirectoryButton } from '@/components/print-button';
 import { SafetyNote } from '@/components/safety-note';
 import { Screen } from '@/components/screen';
 import { replicaGate } from '@/components/states';
@@ -65,6 +67,8 @@ export default function PanelScreen() {
             />
           )}
         </View>
+        <CsvButtons panelId={panelId} canImport={canEdit} />
+        <PrintDirectoryButton panelId={panelId} />
         {!canEdit && (
           <View style={styles.readOnly} testID="read-only-note">
             <Text variant="small">Read only: as {building.role} you can view this schedule but not change it.</Text>

@@ -1,0 +1,331 @@
+/**
+ * The inspection report: what was done, each reading judged by shared/assess.ts (the same function
+ * the screens and GET /api/inspections/:id use), the deficiencies it raised with their photos,
+ * each panel's load from shared/calc (panelLoad), the sign-off and the safety caution. Flowing
+ * pages, Letter.
+ */
+import type { Readable } from 'node:stream';
+import sharp from 'sharp';
+import { In, IsNull, type DataSource } from 'typeorm';
+import { assessReading, type Assessment } from '../../../shared/assess';
+import { SAFETY_CAUTION, panelLoad } from '../../../shared/calc';
+import { SYSTEM_INFO } from '../../../shared/domain';
+import {
+  INSPECTION_KIND_LABELS,
+  PRIORITY_LABELS,
+  STATUS_LABELS,
+  THERMAL_COMPONENT_LABELS,
+  VISUAL_CHECKS,
+  type ReadingFields,
+} from '../../../shared/records';
+import { roleForBuilding, type Actor } from '../../auth/access';
+import { Building, Circuit, CurveBand, Deficiency, Inspection, Panel, Photo, Reading } from '../../entities';
+import { NotFoundError } from '../../http/errors';
+import type { PhotoStore } from '../photo-store';
+import { COPPER, FONT, INK, PRIORITY_COLOURS, RULE, SOFT, dayOf, finish, newDocument, printable } from './fonts';
+import { slug } from './directory';
+
+const live = { deletedAt: IsNull() };
+const MARGIN = 48;
+const THUMB_PT = 110;
+
+/** Room left on the page before the bottom margin. */
+function roomLeft(doc: PDFKit.PDFDocument): number {
+  return doc.page.height - doc.page.margins.bottom - doc.y;
+}
+function keepTogether(doc: PDFKit.PDFDocument, height: number): void {
+  if (roomLeft(doc) < height) doc.addPage();
+}
+
+function heading(doc: PDFKit.PDFDocument, text: string): void {
+  keepTogether(doc, 60);
+  doc.moveDown(0.8);
+  doc.font(FONT.bold).fontSize(13).fillColor(COPPER).text(text, MARGIN);
+  const y = doc.y + 2;
+  doc.moveTo(MARGIN, y).lineTo(doc.page.width - MARGIN, y).lineWidth(0.6).strokeColor(RULE).stroke();
+  doc.y = y + 6;
+  doc.fillColor(INK);
+}
+
+/** "Label: value" on one flowing line. */
+function fact(doc: PDFKit.PDFDocument, label: string, value: string): void {
+  doc.font(FONT.bold).fontSize(10).fillColor(SOFT).text(`${label}  `, MARGIN, doc.y, { continued: true });
+  doc.font(FONT.text).fillColor(INK).text(value);
+}
+
+async function bytesOf(stream: Readable): Promise<Buffer> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of stream) chunks.push(Buffer.from(chunk as Buffer));
+  return Buffer.concat(chunks);
+}
+
+/** A thumbnail as PNG for pdfkit (which reads JPEG and PNG, not the stored WebP), or why not. */
+async function thumbnail(store: PhotoStore, photo: Photo): Promise<{ png: Buffer } | { note: string }> {
+  if (!photo.uploaded) return { note: 'not uploaded yet (still on the device that took it)' };
+  const stored = await store.get(photo.id, 'thumb');
+  if (!stored) {
+    return {
+      note: photo.contentType === 'image/heic'
+        ? 'HEIC photo without a thumbnail: open it in the app'
+        : 'no thumbnail stored: open it in the app',
+    };
+  }
+  try {
+    return { png: await sharp(await bytesOf(stored.body)).png().toBuffer() };
+  } catch {
+    return { note: 'thumbnail could not be read: open it in the app' };
+  }
+}
+
+function readingTitle(r: Reading, circuit: Circuit | undefined, panel: Panel | undefined): string {
+  const where = [panel ? `Panel ${panel.tag}` : null, circuit ? `position ${circuit.position}` : null]
+    .filter(Boolean)
+    .join(', ');
+  const what =
+    r.kind === 'thermal'
+      ? `Thermal${r.component ? ` — ${THERMAL_COMPONENT_LABELS[r.component]}` : ''}${r.phase ? `, phase ${r.phase}` : ''}`
+      : r.kind === 'torque'
+        ? `Torque${r.fastener ? ` — ${r.fastener}` : ''}`
+        : r.kind === 'trip'
+          ? 'Trip test'
+          : `Visual${r.check ? ` — ${VISUAL_CHECKS[r.check].label}` : ''}`;
+  return `${what}${where ? ` (${where}${circuit?.description ? `: ${circuit.description}` : ''})` : ''}`;
+}
+
+function measured(r: Reading): string | null {
+  switch (r.kind) {
+    case 'thermal':
+      return [
+        r.temperatureC !== null ? `${r.temperatureC} °C measured` : null,
+        r.referenceC !== null ? `${r.referenceC} °C reference (${r.referenceBasis === 'ambient' ? 'ambient air' : 'similar component'})` : null,
+        r.loadA !== null ? `load ${r.loadA} A` : null,
+        r.referenceLoadA !== null ? `reference load ${r.referenceLoadA} A` : null,
+      ].filter(Boolean).join('; ') || null;
+    case 'torque':
+      return [
+        r.specified !== null ? `specified ${r.specified} ${r.unit ?? ''}`.trim() : null,
+        r.asFound === 'held' ? 'held at the specified torque' : r.asFoundValue !== null ? `turned at ${r.asFoundValue} ${r.unit ?? ''}`.trim() : null,
+        r.asLeft !== null ? `left at ${r.asLeft} ${r.unit ?? ''}`.trim() : null,
+      ].filter(Boolean).join('; ') || null;
+    case 'trip':
+      return [
+        r.testCurrentA !== null ? `test current ${r.testCurrentA} A` : null,
+        r.tripped === false ? 'did not trip' : r.tripTimeS !== null ? `tripped in ${r.tripTimeS} s` : null,
+      ].filter(Boolean).join('; ') || null;
+    default:
+      return null;
+  }
+}
+
+function verdictWords(a: Assessment): string {
+  return a.priority ? PRIORITY_LABELS[a.priority] : 'No action';
+}
+
+/** Priority or verdict as a coloured tag followed by its word (never colour alone). */
+function tagLine(doc: PDFKit.PDFDocument, word: string, colour: string, rest: string): void {
+  const y = doc.y;
+  doc.font(FONT.bold).fontSize(10);
+  const w = doc.widthOfString(word) + 10;
+  keepTogether(doc, 16);
+  doc.roundedRect(MARGIN, doc.y, w, 14, 3).fill(colour);
+  doc.fillColor('#FFFFFF').text(word, MARGIN + 5, doc.y + 2, { lineBreak: false });
+  doc.fillColor(INK).font(FONT.text).fontSize(10).text(rest, MARGIN + w + 8, doc.y === y ? y + 2 : doc.y, {
+    width: doc.page.width - 2 * MARGIN - w - 8,
+  });
+  doc.x = MARGIN;
+  doc.moveDown(0.2);
+}
+
+/** The caution (shared/calc SAFETY_CAUTION) in a box with a P2-amber edge and the word "Safety". */
+function safetyBox(doc: PDFKit.PDFDocument, width: number): void {
+  keepTogether(doc, 90);
+  doc.moveDown(0.8);
+  const top = doc.y;
+  doc.font(FONT.bold).fontSize(9.5).fillColor(INK).text('Safety', MARGIN + 10, top + 6, { width: width - 20 });
+  doc.font(FONT.text).fontSize(9.5).text(SAFETY_CAUTION, { width: width - 20 });
+  const bottom = doc.y + 6;
+  doc.rect(MARGIN, top, 3, bottom - top).fill(PRIORITY_COLOURS[2]);
+  doc.x = MARGIN;
+  doc.y = bottom;
+}
+
+/**
+ * The report of one inspection as a PDF, for the route and for anything that sends it on (the
+ * e-mail to the owner). Not found when the actor may not see the building.
+ */
+export async function inspectionReportPdf(
+  ds: DataSource,
+  store: PhotoStore,
+  actor: Actor,
+  inspectionId: string,
+): Promise<{ filename: string; pdf: Buffer }> {
+  const em = ds.manager;
+  const inspection = await em.findOne(Inspection, { where: { id: inspectionId, ...live } });
+  const building = inspection && (await em.findOne(Building, { where: { id: inspection.buildingId, ...live } }));
+  if (!inspection || !building || !roleForBuilding(actor, building)) throw new NotFoundError('Inspection');
+
+  const readings = await em.find(Reading, { where: { inspectionId: inspection.id, ...live }, order: { id: 'ASC' } });
+  const panels = inspection.panelIds.length ? await em.find(Panel, { where: { id: In(inspection.panelIds) } }) : [];
+  const panelById = new Map(panels.map((p) => [p.id, p]));
+  const allCircuits = inspection.panelIds.length
+    ? await em.find(Circuit, { where: { panelId: In(inspection.panelIds), ...live }, order: { position: 'ASC' } })
+    : [];
+  const extraIds = readings.map((r) => r.circuitId).filter((c): c is string => !!c && !allCircuits.some((x) => x.id === c));
+  const extra = extraIds.length ? await em.find(Circuit, { where: { id: In(extraIds) } }) : [];
+  const circuitById = new Map([...allCircuits, ...extra].map((c) => [c.id, c]));
+  const bandIds = [...readings.map((r) => r.bandId), ...[...circuitById.values()].map((c) => c.bandId)].filter(
+    (b): b is string => !!b,
+  );
+  const bands = bandIds.length ? await em.find(CurveBand, { where: { id: In(bandIds) } }) : [];
+  const bandById = new Map(bands.map((b) => [b.id, b]));
+  const deficiencies = await em.find(Deficiency, {
+    where: { inspectionId: inspection.id, ...live },
+    order: { priority: 'ASC', id: 'ASC' },
+  });
+  const photos = deficiencies.length
+    ? await em.find(Photo, { where: { parentId: In(deficiencies.map((d) => d.id)), ...live }, order: { takenAt: 'ASC' } })
+    : [];
+
+  const kind = INSPECTION_KIND_LABELS[inspection.kind];
+  const doc = newDocument({ paper: 'letter', title: `${kind} — ${building.name} — ${inspection.performedOn}`, margin: MARGIN });
+  const width = doc.page.width - 2 * MARGIN;
+
+  // ---- header
+  doc.font(FONT.bold).fontSize(9).fillColor(COPPER).text('INSPECTION REPORT', MARGIN, MARGIN);
+  doc.font(FONT.bold).fontSize(22).fillColor(INK).text(`${kind}, ${inspection.performedOn}`);
+  doc.font(FONT.text).fontSize(12).fillColor(SOFT).text(building.name);
+  doc.moveDown(0.5);
+  fact(doc, 'Inspector', inspection.inspectorName || 'not recorded');
+  fact(doc, 'Panels', panels.map((p) => `${p.tag}${p.location ? ` (${p.location})` : ''}`).join(', ') || 'none named');
+  fact(doc, 'Ambient', inspection.ambientC !== null ? `${inspection.ambientC} °C` : 'not recorded');
+  fact(doc, 'Load at the time', inspection.loadPct !== null ? `${inspection.loadPct} % of normal` : 'not recorded');
+  if (inspection.notes) fact(doc, 'Notes', inspection.notes);
+  doc.moveDown(0.3);
+  doc.font(FONT.bold).fontSize(11);
+  if (inspection.signedAt) {
+    doc.fillColor(INK).text(`Signed off by ${inspection.signedByName || 'the inspector'} on ${dayOf(inspection.signedAt)}.`);
+  } else {
+    doc.fillColor(PRIORITY_COLOURS[1]).text('NOT SIGNED — this inspection is still open and may change.');
+  }
+
+  safetyBox(doc, width);
+
+  // ---- readings
+  heading(doc, `Readings (${readings.length})`);
+  if (readings.length === 0) doc.font(FONT.text).fontSize(10).fillColor(SOFT).text('No readings were recorded.');
+  for (const r of readings) {
+    const circuit = r.circuitId ? circuitById.get(r.circuitId) : undefined;
+    const bandId = r.bandId ?? circuit?.bandId;
+    const a = assessReading(r as unknown as ReadingFields, {
+      circuit,
+      panel: panelById.get(r.panelId),
+      band: bandId ? bandById.get(bandId) : null,
+    });
+    keepTogether(doc, 80);
+    doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(readingTitle(r, circuit, panelById.get(r.panelId)), MARGIN, doc.y, { width });
+    const m = measured(r);
+    if (m) doc.font(FONT.mono).fontSize(9).fillColor(SOFT).text(m, { width });
+    tagLine(doc, verdictWords(a), a.priority ? PRIORITY_COLOURS[a.priority] : SOFT, a.summary);
+    if (a.kind === 'thermal' && a.priority) doc.font(FONT.text).fontSize(9.5).fillColor(INK).text(`Action: ${a.action}`, { width });
+    if (a.kind === 'thermal') for (const note of a.notes) doc.font(FONT.text).fontSize(9).fillColor(SOFT).text(note, { width });
+    doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(`Basis: ${a.basis}`, { width });
+    if (r.notes) doc.font(FONT.text).fontSize(9).fillColor(INK).text(`Note: ${r.notes}`, { width });
+    doc.moveDown(0.6);
+  }
+
+  // ---- deficiencies
+  heading(doc, `Deficiencies raised (${deficiencies.length})`);
+  if (deficiencies.length === 0) doc.font(FONT.text).fontSize(10).fillColor(SOFT).text('None were raised in this inspection.');
+  for (const d of deficiencies) {
+    keepTogether(doc, 70);
+    const panel = d.panelId ? panelById.get(d.panelId) : undefined;
+    const circuit = d.circuitId ? circuitById.get(d.circuitId) : undefined;
+    tagLine(doc, PRIORITY_LABELS[d.priority], PRIORITY_COLOURS[d.priority], d.title);
+    const where = [panel ? `Panel ${panel.tag}` : null, circuit ? `position ${circuit.position}` : null].filter(Boolean).join(', ');
+    doc.font(FONT.text).fontSize(9.5).fillColor(SOFT)
+      .text([`${STATUS_LABELS[d.status]}`, `due ${d.dueOn}`, where || null, d.raisedByName ? `raised by ${d.raisedByName}` : null].filter(Boolean).join(' · '), MARGIN, doc.y, { width });
+    if (d.description) doc.font(FONT.text).fontSize(10).fillColor(INK).text(d.description, { width });
+    if (d.priorityReason) doc.font(FONT.text).fontSize(9).fillColor(SOFT).text(`Why this priority: ${d.priorityReason}`, { width });
+    if (d.status === 'deferred' && d.deferReason) {
+      doc.font(FONT.text).fontSize(9).fillColor(INK).text(`Deferred: ${d.deferReason}${d.reviewOn ? ` (review ${d.reviewOn})` : ''}`, { width });
+    }
+    if (d.repairNote) doc.font(FONT.text).fontSize(9).fillColor(INK).text(`Repair: ${d.repairNote}`, { width });
+    const own = photos.filter((p) => p.parentId === d.id);
+    if (own.length) {
+      doc.moveDown(0.3);
+      let x = MARGIN;
+      let rowTop = doc.y;
+      const notes: string[] = [];
+      for (const photo of own) {
+        const t = await thumbnail(store, photo);
+        if ('note' in t) {
+          notes.push(`Photo ${dayOf(photo.takenAt)}${photo.caption ? ` (${photo.caption})` : ''}: ${t.note}.`);
+          continue;
+        }
+        if (x + THUMB_PT > MARGIN + width) {
+          x = MARGIN;
+          rowTop += THUMB_PT + 6;
+        }
+        if (rowTop + THUMB_PT > doc.page.height - doc.page.margins.bottom) {
+          doc.addPage();
+          rowTop = doc.y;
+          x = MARGIN;
+        }
+        doc.image(t.png, x, rowTop, { fit: [THUMB_PT, THUMB_PT] });
+        x += THUMB_PT + 6;
+      }
+      if (x !== MARGIN) doc.y = rowTop + THUMB_PT + 4;
+      doc.x = MARGIN;
+      for (const note of notes) doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(note, MARGIN, doc.y, { width });
+    }
+    doc.moveDown(0.6);
+  }
+
+  // ---- load per panel
+  heading(doc, 'Panel load (from the schedule on record)');
+  for (const panel of panels) {
+    keepTogether(doc, 70);
+    const circuits = allCircuits.filter((c) => c.panelId === panel.id);
+    const load = panelLoad(panel, circuits);
+    const phases = Object.entries(load.phases)
+      .map(([phase, p]) => `${phase} ${p.amps.toFixed(1)} A`)
+      .join(' · ');
+    doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(`Panel ${panel.tag} — ${printable(SYSTEM_INFO[panel.system].label)}`, MARGIN, doc.y, { width });
+    doc.font(FONT.mono).fontSize(9).fillColor(INK)
+      .text(`Connected ${(load.totalVA / 1000).toFixed(1)} kVA · demand ${(load.demandVA / 1000).toFixed(1)} kVA · per phase ${phases}`, { width })
+      .text(
+        `Worst phase demand ${load.utilisationPct === null ? 'n/a' : `${load.utilisationPct.toFixed(0)} %`} of ${load.capacityA ?? '—'} A · imbalance ${load.imbalancePct.toFixed(0)} %`,
+        { width },
+      );
+    doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(
+      'Continuous loads at 125 % plus the rest at 100 % (NEC 215.3 / 210.20(A)); imbalance as NEMA MG 1 defines it. ' +
+        'Only circuits with a recorded load count.',
+      { width },
+    );
+    doc.moveDown(0.5);
+  }
+
+  // ---- sign-off and caution
+  heading(doc, 'Sign-off');
+  if (inspection.signedAt) {
+    doc.font(FONT.bold).fontSize(11).fillColor(INK).text(inspection.signedByName || 'The inspector', MARGIN, doc.y, { width });
+    doc.font(FONT.text).fontSize(10).text(`signed this inspection on ${inspection.signedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC; its readings are frozen.`, { width });
+  } else {
+    doc.font(FONT.bold).fontSize(12).fillColor(PRIORITY_COLOURS[1]).text('NOT SIGNED', MARGIN, doc.y, { width });
+    doc.font(FONT.text).fontSize(10).fillColor(INK).text('The inspector has not signed this inspection: its readings may still change.', { width });
+  }
+
+  // page numbers
+  const range = doc.bufferedPageRange();
+  for (let i = 0; i < range.count; i += 1) {
+    doc.switchToPage(range.start + i);
+    const bottomMargin = doc.page.margins.bottom;
+    doc.page.margins.bottom = 0;
+    doc.font(FONT.text).fontSize(8).fillColor(SOFT)
+      .text(`${building.name} · ${kind} ${inspection.performedOn} · page ${i + 1} of ${range.count}`, MARGIN, doc.page.height - 30, { width, align: 'center', lineBreak: false });
+    doc.page.margins.bottom = bottomMargin;
+  }
+
+  const pdf = await finish(doc);
+  return { filename: `inspection-${slug(building.name)}-${inspection.kind}-${inspection.performedOn}.pdf`, pdf };
+}

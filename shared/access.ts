@@ -1,0 +1,96 @@
+/**
+ * The contract of users and access: invitations, password reset and the people of an
+ * organisation (server/routes/access.ts, hooks/use-access.ts).
+ */
+import { z } from 'zod';
+import { ROLES, type Role } from './domain';
+
+export const PASSWORD_MIN = 10;
+export const INVITATION_DAYS = 7;
+export const RESET_MINUTES = 60;
+
+export const ROLE_LABELS: Record<Role, string> = {
+  admin: 'Admin',
+  electrician: 'Electrician',
+  inspector: 'Inspector',
+  owner: 'Building owner',
+};
+
+const password = z
+  .string()
+  .min(PASSWORD_MIN, `use at least ${PASSWORD_MIN} characters`)
+  .max(200, 'use at most 200 characters');
+
+export const inviteBody = z
+  .object({
+    email: z.email('enter an e-mail address').max(200),
+    role: z.enum(ROLES, { error: 'choose a role' }),
+    buildingIds: z.array(z.uuid()).max(500).default([]),
+  })
+  .refine((b) => b.role !== 'owner' || b.buildingIds.length > 0, {
+    path: ['buildingIds'],
+    message: 'grant at least one building to an owner',
+  });
+export type InviteBody = z.input<typeof inviteBody>;
+
+export const acceptInvitationBody = z.object({
+  name: z.string().trim().min(1, 'enter your name').max(120, 'use at most 120 characters'),
+  password,
+});
+export type AcceptInvitationBody = z.infer<typeof acceptInvitationBody>;
+
+export const forgotPasswordBody = z.object({ email: z.email('enter an e-mail address').max(200) });
+export type ForgotPasswordBody = z.infer<typeof forgotPasswordBody>;
+
+export const resetPasswordBody = z.object({ password });
+export type ResetPasswordBody = z.infer<typeof resetPasswordBody>;
+
+export const roleChangeBody = z.object({ role: z.enum(ROLES, { error: 'choose a role' }) });
+
+export const sendReportBody = z.object({
+  /** one address of the organisation's owners; without it, every owner granted the building */
+  to: z.email('enter an e-mail address').max(200).optional(),
+});
+
+/** What the one-time link's page shows before the form. */
+export interface InvitationView {
+  email: string;
+  organisationName: string;
+  role: Role;
+  expiresAt: string;
+}
+
+export interface Person {
+  userId: string;
+  name: string;
+  email: string;
+  role: Role;
+  /** the buildings granted (owners only) */
+  buildingIds: string[];
+}
+
+export interface PendingInvitation {
+  id: string;
+  email: string;
+  role: Role;
+  buildingIds: string[];
+  expiresAt: string;
+  invitedBy: string;
+}
+
+export interface PeopleResponse {
+  organisationId: string;
+  people: Person[];
+  invitations: PendingInvitation[];
+  buildings: { id: string; name: string }[];
+}
+
+export interface InviteResponse {
+  /** an invitation was e-mailed, or the account existed and the membership was added */
+  outcome: 'invited' | 'membership_added';
+  message: string;
+}
+
+/** The same answer whether or not an account has that address. */
+export const FORGOT_PASSWORD_ANSWER =
+  'If an account uses that address, an e-mail with a link to choose a new password is on its way. The link works once, for one hour.';
