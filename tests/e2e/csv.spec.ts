@@ -47,8 +47,8 @@ test('export LA of the clinic, import a changed file offline with a preview, and
   await context.setOffline(true);
   await expectStatus(page, 'offline');
 
-  // one description changed, one new circuit on the spare breaker at 35
-  setCell(rows, 27, 'Description', `Office 119 receptacles ${run}`);
+  // one description changed (29, so the deliberate directory problem at 27 stays for the warnings test), the spare at 35 put in use
+  setCell(rows, 29, 'Description', `Office 119 receptacles ${run}`);
   setCell(rows, 35, 'Status', 'in-use');
   setCell(rows, 35, 'Description', `Lab specimen fridge ${run}`);
   setCell(rows, 35, 'Load kind', 'appliance');
@@ -59,9 +59,9 @@ test('export LA of the clinic, import a changed file offline with a preview, and
   const preview = page.getByTestId('csv-preview');
   await expect(preview).toBeVisible();
   await expect(page.getByTestId('csv-file-name')).toContainText('0 new, 2 changed, 39 unchanged');
-  const row27 = preview.getByTestId(/^csv-row-\d+$/).filter({ hasText: `Office 119 receptacles ${run}` });
-  await expect(row27).toContainText('✎ Changed');
-  await expect(row27).toContainText(`Description: Dana's office → Office 119 receptacles ${run}`);
+  const row29 = preview.getByTestId(/^csv-row-\d+$/).filter({ hasText: `Office 119 receptacles ${run}` });
+  await expect(row29).toContainText('✎ Changed');
+  await expect(row29).toContainText(`Description: Offices 116 & 117 receptacles → Office 119 receptacles ${run}`);
   const row35 = preview.getByTestId(/^csv-row-\d+$/).filter({ hasText: `Lab specimen fridge ${run}` });
   await expect(row35).toContainText('Status: spare → in-use');
   await page.screenshot({ path: `${ARTIFACTS}/csv-preview.png`, fullPage: true });
@@ -71,7 +71,7 @@ test('export LA of the clinic, import a changed file offline with a preview, and
   await apply.click();
   await expect(page.getByTestId('csv-applied')).toContainText('0 new, 2 changed');
   await page.getByTestId('csv-back').click();
-  await expect(page.getByTestId('position-27')).toContainText(`Office 119 receptacles ${run}`);
+  await expect(page.getByTestId('position-29')).toContainText(`Office 119 receptacles ${run}`);
   await expect(page.getByTestId('position-35')).toContainText(`Lab specimen fridge ${run}`);
 
   await context.setOffline(false);
@@ -79,11 +79,11 @@ test('export LA of the clinic, import a changed file offline with a preview, and
   const stored = await query<{ position: number; description: string; status: string; load_kind: string; load_va: number }>(
     `SELECT c.position, c.description, c.status, c.load_kind, c.load_va FROM circuit c JOIN panel p ON p.id = c.panel_id
       JOIN building b ON b.id = p.building_id
-      WHERE b.name = $1 AND p.tag = 'LA' AND c.position IN (27, 35) AND c.deleted_at IS NULL ORDER BY c.position`,
+      WHERE b.name = $1 AND p.tag = 'LA' AND c.position IN (29, 35) AND c.deleted_at IS NULL ORDER BY c.position`,
     [CLINIC],
   );
   expect(stored.map((r) => [r.position, r.description, r.status, r.load_kind, Number(r.load_va)])).toEqual([
-    [27, `Office 119 receptacles ${run}`, 'in-use', 'receptacles', 540],
+    [29, `Office 119 receptacles ${run}`, 'in-use', 'receptacles', 720],
     [35, `Lab specimen fridge ${run}`, 'in-use', 'appliance', 600],
   ]);
   await context.close();

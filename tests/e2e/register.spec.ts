@@ -78,7 +78,7 @@ test.describe('read-only roles', () => {
     await expect(page.getByTestId('read-only-note')).toBeVisible();
     await expect(page.getByTestId('edit-panel')).toHaveCount(0);
     await page.getByTestId('position-1').click();
-    await expect(page.getByText('Directory')).toBeVisible();
+    await expect(page.getByText('Directory', { exact: true })).toBeVisible();
     await expect(page.getByTestId('save-circuit')).toHaveCount(0);
     await expect(page.getByTestId('field-description')).toHaveCount(0);
     await page.screenshot({ path: `${ARTIFACTS}/owner-circuit-phone.png` });
