@@ -5,6 +5,7 @@
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
+import { formatHlc } from '../../shared/hlc';
 import { createApp, type App } from '../../server/app';
 import { readConfig } from '../../server/config';
 import { makeDataSource } from '../../server/data-source';
@@ -93,4 +94,12 @@ export async function makeForeignOrganisation(ds: DataSource) {
     [circuitId, panelId, buildingId, stamp],
   );
   return { organisationId, buildingId, panelId, circuitId };
+}
+
+let lastWall = 0;
+/** A device's HLC stamp on the real clock; every stamp a test file makes sorts after the one before. */
+export function stamp(device: string, aheadMs = 0): string {
+  const wall = Math.max(Date.now(), lastWall + 1);
+  lastWall = wall;
+  return formatHlc({ wallMs: wall + aheadMs, counter: 0, deviceId: device });
 }

@@ -9,9 +9,8 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type request from 'supertest';
 import { uuidv7 } from 'uuidv7';
-import { formatHlc } from '../../shared/hlc';
 import { SCHEMA_VERSION, type Mutation, type PullResponse, type PushResponse } from '../../shared/sync';
-import { demoIds, makeForeignOrganisation, startApp, type TestContext } from './context';
+import { demoIds, makeForeignOrganisation, stamp, startApp, type TestContext } from './context';
 
 let ctx: TestContext;
 let ids: Awaited<ReturnType<typeof demoIds>>;
@@ -28,13 +27,6 @@ before(async () => {
   );
 });
 after(() => ctx.close());
-
-let lastWall = 0;
-function stamp(device: string): string {
-  const wall = Math.max(Date.now(), lastWall + 1);
-  lastWall = wall;
-  return formatHlc({ wallMs: wall, counter: 0, deviceId: device });
-}
 
 const DEVICE = 'records-test';
 function m(name: Mutation['name'], entityId: string, fields: Record<string, unknown>, buildingId = ids.clinicId): Mutation {

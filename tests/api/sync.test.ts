@@ -8,11 +8,11 @@ import { after, before, describe, it } from 'node:test';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
 import { uuidv7 } from 'uuidv7';
-import { formatHlc, parseHlc } from '../../shared/hlc';
+import { parseHlc } from '../../shared/hlc';
 import { SCHEMA_VERSION, type Mutation, type PullResponse, type PushResponse } from '../../shared/sync';
 import { loadActor } from '../../server/auth/access';
 import { applyPush } from '../../server/services/sync';
-import { demoIds, startApp, type TestContext } from './context';
+import { demoIds, stamp, startApp, type TestContext } from './context';
 
 let ctx: TestContext;
 let ids: Awaited<ReturnType<typeof demoIds>>;
@@ -31,14 +31,6 @@ before(async () => {
 after(() => ctx.close());
 
 // ---------- helpers ----------
-
-let lastWall = 0;
-/** A device's HLC stamp on the real clock; every stamp of this file sorts after the one before. */
-function stamp(device: string, aheadMs = 0): string {
-  const wall = Math.max(Date.now(), lastWall + 1);
-  lastWall = wall;
-  return formatHlc({ wallMs: wall + aheadMs, counter: 0, deviceId: device });
-}
 
 type Name = Mutation['name'];
 function mutation(
