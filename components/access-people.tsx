@@ -124,7 +124,7 @@ function PersonCard({
       {isMe ? (
         <Text variant="small" tone="faint">You cannot remove yourself; another admin can.</Text>
       ) : onlyAdmin ? null : (
-        <Button label={`Remove ${person.name}`} tone="danger" onPress={onRemove} busy={remove.isPending} testID={`remove-${slug}`} />
+        <Button label={`Remove ${person.name}…`} tone="secondary" onPress={onRemove} busy={remove.isPending} testID={`remove-${slug}`} />
       )}
     </View>
   );
