@@ -128,24 +128,58 @@ pg_down() {
 
 tsx_server() { TSX_TSCONFIG_PATH=server/tsconfig.json tsx "$@"; }
 
-# ---------- object storage: a local s3rver (scripts/s3-server.ts) ----------
-# Its data sits beside the PostgreSQL cluster of the same name (`<cluster>-s3`), with its pid file
-# and log. Only the process named in the pid file is ever stopped, and only when it is ours.
-S3_BUCKET_LOCAL=ampwright
+# ---------- local stand-ins for object storage and e-mail ----------
+# Each runs one of our node scripts in its own session (a Ctrl-C of npm start leaves it running,
+# like the database; npm run stop ends it), with its data, pid file and log in a folder beside the
+# PostgreSQL cluster of the same name. Only the process named in the pid file is ever stopped, and
+# only when its command line is still our script.
 
-s3_dir() { echo "$(pg_datadir "$1")-s3"; }
-
-# s3_pid NAME: the pid of this checkout's running s3rver NAME, or nothing.
-s3_pid() {
-  local pidfile pid
-  pidfile="$(s3_dir "$1")/s3rver.pid"
+# service_pid DIR SCRIPT: the pid of SCRIPT running from DIR/service.pid, or nothing.
+service_pid() {
+  local pidfile="$1/service.pid" pid
   [ -f "$pidfile" ] || return 0
   pid="$(cat "$pidfile")"
   # a stale pid may belong to another process by now: check it is our script before trusting it
-  if [ -n "$pid" ] && tr '\0' ' ' <"/proc/$pid/cmdline" 2>/dev/null | grep -q "scripts/s3-server.ts"; then
+  if [ -n "$pid" ] && tr '\0' ' ' <"/proc/$pid/cmdline" 2>/dev/null | grep -q "$2"; then
     echo "$pid"
   fi
 }
+
+# service_start DIR SCRIPT ARGS...: start SCRIPT (which writes DIR/service.pid) unless it runs.
+service_start() {
+  local dir="$1" script="$2"; shift 2
+  mkdir -p "$dir"
+  [ -n "$(service_pid "$dir" "$script")" ] && return 0
+  rm -f "$dir/service.pid"
+  setsid node --import tsx "$script" "$@" "$dir/service.pid" >"$dir/service.log" 2>&1 </dev/null &
+}
+
+# service_wait DIR SCRIPT URL WHAT: wait until URL answers 200 with the script running, or die.
+service_wait() {
+  local dir="$1" script="$2" url="$3" what="$4" code=000
+  for _ in $(seq 1 80); do
+    code="$(curl -s -o /dev/null -w '%{http_code}' "$url" || true)"
+    [ "$code" = 200 ] && [ -n "$(service_pid "$dir" "$script")" ] && return 0
+    sleep 0.25
+  done
+  tail -20 "$dir/service.log" >&2 || true
+  die "$what did not answer at $url (log above; is the port taken?)"
+}
+
+# service_stop DIR SCRIPT WHAT: stop it if it runs.
+service_stop() {
+  local pid; pid="$(service_pid "$1" "$2")"
+  [ -n "$pid" ] || return 0
+  kill "$pid" 2>/dev/null || true
+  for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
+  rm -f "$1/service.pid"
+  log "Stopped $3"
+}
+
+# object storage: a local s3rver (scripts/s3-server.ts)
+S3_BUCKET_LOCAL=ampwright
+S3_SCRIPT=scripts/s3-server.ts
+s3_dir() { echo "$(pg_datadir "$1")-s3"; }
 
 # s3_up NAME PORT [fresh]: start (if needed) a fake S3 on 127.0.0.1:PORT with the bucket created,
 # wait until it answers, and export the S3_* variables the server reads (server/config.ts).
@@ -153,50 +187,17 @@ s3_up() {
   local name="$1" port="$2" fresh="${3:-}"
   local dir; dir="$(s3_dir "$name")"
   if [ "$fresh" = fresh ]; then s3_down "$name"; rm -rf "$dir"; fi
-  mkdir -p "$dir"
-  if [ -z "$(s3_pid "$name")" ]; then
-    rm -f "$dir/s3rver.pid"
-    # its own session, so a Ctrl-C of npm start leaves it running like the database; npm run stop ends it
-    setsid node --import tsx scripts/s3-server.ts "$port" "$dir/data" "$S3_BUCKET_LOCAL" "$dir/s3rver.pid" \
-      >"$dir/s3rver.log" 2>&1 </dev/null &
-  fi
-  local code=000
-  for _ in $(seq 1 80); do
-    code="$(curl -s -o /dev/null -w '%{http_code}' "http://127.0.0.1:$port/$S3_BUCKET_LOCAL" || true)"
-    [ "$code" = 200 ] && [ -n "$(s3_pid "$name")" ] && break
-    sleep 0.25
-  done
-  if [ "$code" != 200 ] || [ -z "$(s3_pid "$name")" ]; then
-    tail -20 "$dir/s3rver.log" >&2 || true
-    die "the local S3 '$name' did not answer on 127.0.0.1:$port (log above; is the port taken?)"
-  fi
+  service_start "$dir" "$S3_SCRIPT" "$port" "$dir/data" "$S3_BUCKET_LOCAL"
+  service_wait "$dir" "$S3_SCRIPT" "http://127.0.0.1:$port/$S3_BUCKET_LOCAL" "the local S3 '$name'"
   export S3_ENDPOINT="http://127.0.0.1:$port" S3_REGION=us-east-1 S3_BUCKET="$S3_BUCKET_LOCAL" \
     S3_ACCESS_KEY_ID=S3RVER S3_SECRET_ACCESS_KEY=S3RVER S3_FORCE_PATH_STYLE=1
 }
+s3_down() { service_stop "$(s3_dir "$1")" "$S3_SCRIPT" "the local S3 '$1'"; }
 
-s3_down() {
-  local pid dir; pid="$(s3_pid "$1")"; dir="$(s3_dir "$1")"
-  [ -n "$pid" ] || return 0
-  kill "$pid" 2>/dev/null || true
-  for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
-  rm -f "$dir/s3rver.pid"
-  log "Stopped the local S3 '$1'"
-}
-
-# ---------- e-mail: a local MailDev (scripts/mail-server.ts) ----------
-# Catches every message the server sends; its inbox is a web page and a REST API (GET /email).
-# Data, pid file and log beside the PostgreSQL cluster of the same name (`<cluster>-mail`).
+# e-mail: a local MailDev (scripts/mail-server.ts). It catches every message the server sends;
+# its inbox is a web page and a REST API (GET /email).
+MAIL_SCRIPT=scripts/mail-server.ts
 mail_dir() { echo "$(pg_datadir "$1")-mail"; }
-
-mail_pid() {
-  local pidfile pid
-  pidfile="$(mail_dir "$1")/maildev.pid"
-  [ -f "$pidfile" ] || return 0
-  pid="$(cat "$pidfile")"
-  if [ -n "$pid" ] && tr '\0' ' ' <"/proc/$pid/cmdline" 2>/dev/null | grep -q "scripts/mail-server.ts"; then
-    echo "$pid"
-  fi
-}
 
 # mail_up NAME SMTP_PORT WEB_PORT [fresh]: start (if needed) the fake SMTP server with its inbox on
 # 127.0.0.1, wait until the inbox answers, and export the SMTP_* variables (server/config.ts) and
@@ -205,33 +206,11 @@ mail_up() {
   local name="$1" smtp="$2" web="$3" fresh="${4:-}"
   local dir; dir="$(mail_dir "$name")"
   if [ "$fresh" = fresh ]; then mail_down "$name"; rm -rf "$dir"; fi
-  mkdir -p "$dir"
-  if [ -z "$(mail_pid "$name")" ]; then
-    rm -f "$dir/maildev.pid"
-    setsid node --import tsx scripts/mail-server.ts "$smtp" "$web" "$dir/mail" "$dir/maildev.pid" \
-      >"$dir/maildev.log" 2>&1 </dev/null &
-  fi
-  local code=000
-  for _ in $(seq 1 80); do
-    code="$(curl -s -o /dev/null -w '%{http_code}' "http://127.0.0.1:$web/email" || true)"
-    [ "$code" = 200 ] && [ -n "$(mail_pid "$name")" ] && break
-    sleep 0.25
-  done
-  if [ "$code" != 200 ] || [ -z "$(mail_pid "$name")" ]; then
-    tail -20 "$dir/maildev.log" >&2 || true
-    die "the local mail server '$name' did not answer on 127.0.0.1:$web (log above; is the port taken?)"
-  fi
+  service_start "$dir" "$MAIL_SCRIPT" "$smtp" "$web" "$dir/mail"
+  service_wait "$dir" "$MAIL_SCRIPT" "http://127.0.0.1:$web/email" "the local mail server '$name'"
   export SMTP_HOST=127.0.0.1 SMTP_PORT="$smtp" SMTP_SECURE=0 MAIL_INBOX_URL="http://127.0.0.1:$web"
 }
-
-mail_down() {
-  local pid dir; pid="$(mail_pid "$1")"; dir="$(mail_dir "$1")"
-  [ -n "$pid" ] || return 0
-  kill "$pid" 2>/dev/null || true
-  for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.25; done
-  rm -f "$dir/maildev.pid"
-  log "Stopped the local mail server '$1'"
-}
+mail_down() { service_stop "$(mail_dir "$1")" "$MAIL_SCRIPT" "the local mail server '$1'"; }
 
 # Rebuild the web bundle only when a client source changed since the last build.
 web_source_hash() {
