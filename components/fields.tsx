@@ -65,7 +65,7 @@ export function ChoiceField<T extends string | number | boolean | null>({
 }) {
   return (
     <FieldFrame label={label} error={error} hint={hint}>
-      <View style={styles.chips} accessibilityRole="radiogroup" accessibilityLabel={label}>
+      <View style={chipStyles.chips} accessibilityRole="radiogroup" accessibilityLabel={label}>
         {choices.map((choice) => {
           const selected = choice.value === value;
           return (
@@ -76,7 +76,7 @@ export function ChoiceField<T extends string | number | boolean | null>({
               accessibilityLabel={`${label}: ${choice.label}`}
               disabled={disabled}
               onPress={() => onChange(choice.value)}
-              style={[styles.chip, selected && styles.chipSelected]}
+              style={[chipStyles.chip, selected && chipStyles.chipSelected]}
             >
               <Text variant="strong" tone={selected ? 'paper' : 'ink'}>
                 {selected ? '● ' : ''}
@@ -115,6 +115,23 @@ export function ReadOnlyField({ label, value }: { label: string; value: string }
   );
 }
 
+/** The chip look of ChoiceField, for pickers that need their own behaviour (several at once). */
+export const chipStyles = StyleSheet.create({
+  chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
+  chip: {
+    minHeight: MIN_TOUCH,
+    minWidth: MIN_TOUCH,
+    paddingHorizontal: space.md,
+    borderRadius: radii.md,
+    borderWidth: 1,
+    borderColor: colours.ruleStrong,
+    backgroundColor: colours.card,
+    alignItems: 'center',
+    justifyContent: 'center',
+  },
+  chipSelected: { backgroundColor: colours.ink, borderColor: colours.ink },
+});
+
 const styles = StyleSheet.create({
   field: { gap: space.xs },
   input: {
@@ -131,19 +148,6 @@ const styles = StyleSheet.create({
   mono: { fontFamily: fonts.mono },
   multiline: { minHeight: 88, paddingTop: space.sm, textAlignVertical: 'top' },
   inputError: { borderColor: colours.danger, borderWidth: 2 },
-  chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
-  chip: {
-    minHeight: MIN_TOUCH,
-    minWidth: MIN_TOUCH,
-    paddingHorizontal: space.md,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.ruleStrong,
-    backgroundColor: colours.card,
-    alignItems: 'center',
-    justifyContent: 'center',
-  },
-  chipSelected: { backgroundColor: colours.ink, borderColor: colours.ink },
   readOnly: {
     flexDirection: 'row',
     gap: space.md,

@@ -12,12 +12,12 @@ import {
 } from '@/shared/records';
 import { fieldErrors, type Panel } from '@/shared/schemas';
 import { Button } from './button';
-import { ChoiceField, TextField } from './fields';
+import { ChoiceField, chipStyles, TextField } from './fields';
 import { changedFields, numberOrNull, textOf } from './form-values';
 import { lightLoadWarning, needsLoad } from './inspection-format';
 import { Text } from './text';
 import { useFormDraft } from './use-form-draft';
-import { colours, MIN_TOUCH, radii, space } from './theme';
+import { colours, radii, space } from './theme';
 
 interface Draft {
   kind: InspectionKind;
@@ -78,7 +78,7 @@ function PanelPicker({
   return (
     <View style={styles.field}>
       <Text variant="label" tone="soft">Panels covered</Text>
-      <View style={styles.chips} accessibilityRole="list" accessibilityLabel="Panels covered">
+      <View style={[chipStyles.chips, styles.centred]} accessibilityRole="list" accessibilityLabel="Panels covered">
         {panels.map((panel) => {
           const selected = value.includes(panel.id);
           const fixed = selected && locked.includes(panel.id);
@@ -91,7 +91,7 @@ function PanelPicker({
               disabled={fixed}
               accessibilityLabel={`Panel ${panel.tag}${panel.location ? `, ${panel.location}` : ''}`}
               onPress={() => toggle(panel.id)}
-              style={[styles.chip, selected && styles.chipSelected]}
+              style={[chipStyles.chip, selected && chipStyles.chipSelected]}
               testID={`cover-panel-${panel.tag}`}
             >
               <Text variant="readingBold" tone={selected ? 'paper' : 'ink'}>
@@ -212,23 +212,11 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
 }
 
 const styles = StyleSheet.create({
+  centred: { alignItems: 'center' },
   form: { gap: space.lg },
   field: { gap: space.xs },
   row: { flexDirection: 'row', gap: space.md },
   cell: { flex: 1 },
-  chips: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm, alignItems: 'center' },
-  chip: {
-    minHeight: MIN_TOUCH,
-    minWidth: MIN_TOUCH,
-    paddingHorizontal: space.md,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.ruleStrong,
-    backgroundColor: colours.card,
-    alignItems: 'center',
-    justifyContent: 'center',
-  },
-  chipSelected: { backgroundColor: colours.ink, borderColor: colours.ink },
   warning: {
     gap: space.xs,
     padding: space.md,
