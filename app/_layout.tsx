@@ -1,4 +1,4 @@
-import { dehydrate, QueryClientProvider, type QueryClient } from '@tanstack/react-query';
+import { QueryClientProvider } from '@tanstack/react-query';
 import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client';
 import { useFonts } from 'expo-font';
 import { SplashScreen, Stack } from 'expo-router';
@@ -9,19 +9,21 @@ import { EmptyState, ErrorState, LoadingState } from '@/components/states';
 import { SyncStatus } from '@/components/sync-status';
 import { colours, fonts } from '@/components/theme';
 import { AccountContext, useSession, type Account } from '@/hooks/use-session';
-import { cacheKey, getActiveUser, makePersister, setActiveUser, setCacheFlush, wipeUserCache, withoutBuildingCopy } from '@/lib/account';
-import { reportPersistFailure } from '@/lib/storage-health';
-import { kv } from '@/lib/storage';
+import { getActiveUser, setActiveUser, setCacheFlush, wipeUserCache } from '@/lib/account';
+import { makeDeviceCopy, type DeviceCopy } from '@/lib/device-copy';
 import { deviceId, loadDevice } from '@/lib/device';
 import { registerOfflineShell } from '@/lib/offline-shell';
 import { installOnlineDetection } from '@/lib/online';
 import { waitForOutboxLock } from '@/lib/tab-lock';
 import { makeQueryClient } from '@/lib/query-client';
-import { configureSync, resumeOutbox } from '@/lib/sync';
+import { configureSync, rebaseOnOutbox, resumeOutbox } from '@/lib/sync';
 import { forgetDevicePhotos } from '@/hooks/use-photos';
 import { SCHEMA_VERSION } from '@/shared/sync';
 
 SplashScreen.preventAutoHideAsync().catch(() => undefined);
+
+/** A screen above the tabs opened straight from a URL or a reload still has the tabs beneath it. */
+export const unstable_settings = { initialRouteName: '(tabs)' };
 
 export default function RootLayout() {
   const [fontsLoaded, fontError] = useFonts({
@@ -75,9 +77,12 @@ export default function RootLayout() {
 }
 
 const dehydrateOptions = {
-  // persist by allow-list: the session, the building copy, the band library; mutations still waiting
-  shouldDehydrateQuery: (q: { queryKey: readonly unknown[]; state: { status: string } }) =>
-    q.state.status === 'success' && ['me', 'replica', 'sync-log', 'bands'].includes(String(q.queryKey[0])),
+  // persist by allow-list: the session, the sync log, the band library; mutations still waiting.
+  // Whatever the query's status: a refetch that failed offline keeps its data, and so must the
+  // save (keeping only 'success' dropped the copy after a few offline reloads). The building copy
+  // is saved apart, per building and panel (lib/device-copy.ts).
+  shouldDehydrateQuery: (q: { queryKey: readonly unknown[]; state: { data: unknown } }) =>
+    q.state.data !== undefined && ['me', 'sync-log', 'bands'].includes(String(q.queryKey[0])),
   shouldDehydrateMutation: (m: { state: { status: string } }) => m.state.status === 'pending',
 };
 
@@ -104,18 +109,30 @@ function UserCache({ userId }: { userId: string }) {
 
 /** One signed-in user's persisted cache and outbox. */
 function OwnedUserCache({ userId }: { userId: string }) {
-  const [{ client, persister }] = useState(() => {
+  const [{ client, copy }] = useState(() => {
     const queryClient = makeQueryClient();
-    // before the restore: restored mutations find their function and scope in these defaults
-    configureSync(queryClient, userId);
-    return { client: queryClient, persister: makePersister(userId) };
+    const deviceCopy = makeDeviceCopy({
+      userId,
+      queryClient,
+      buster: String(SCHEMA_VERSION),
+      dehydrateOptions,
+      rebase: (replica) => rebaseOnOutbox(queryClient, replica, userId),
+      path: typeof window === 'undefined' || !window.location ? undefined : window.location.pathname,
+    });
+    // before the restore: restored mutations find their function and scope in these defaults,
+    // and the first pull waits until every stored panel is back in memory
+    configureSync(queryClient, userId, deviceCopy.loaded);
+    return { client: queryClient, copy: deviceCopy };
   });
-  useImmediateSave(client, userId);
+  useImmediateSave(copy);
   return (
     <PersistQueryClientProvider
       client={client}
-      persistOptions={{ persister, maxAge: Infinity, buster: String(SCHEMA_VERSION), dehydrateOptions }}
-      onSuccess={() => resumeOutbox(client)}
+      persistOptions={{ persister: copy.persister, maxAge: Infinity, buster: String(SCHEMA_VERSION), dehydrateOptions }}
+      onSuccess={() => {
+        resumeOutbox(client);
+        void copy.loadRest();
+      }}
     >
       <RootStack />
     </PersistQueryClientProvider>
@@ -123,24 +140,14 @@ function OwnedUserCache({ userId }: { userId: string }) {
 }
 
 /**
- * The persister's throttled save may not have run when a change was just queued, the tab is
- * closed or the app goes to the background: write the same snapshot straight away.
+ * The coalesced save may not have run when a change was just queued, the tab is closed or the
+ * app goes to the background: write straight away.
  */
-function useImmediateSave(queryClient: QueryClient, userId: string) {
+function useImmediateSave(copy: DeviceCopy) {
   useEffect(() => {
-    const flush = async () => {
-      const snapshot = { buster: String(SCHEMA_VERSION), timestamp: Date.now(), clientState: dehydrate(queryClient, dehydrateOptions) };
-      try {
-        await kv.setItem(cacheKey(userId), JSON.stringify(snapshot));
-      } catch (error) {
-        // full device: keep at least the queue, then say so
-        await kv.setItem(cacheKey(userId), JSON.stringify(withoutBuildingCopy(snapshot)));
-        reportPersistFailure(error as Error);
-      }
-    };
-    setCacheFlush(flush);
+    setCacheFlush(copy.flush);
     if (typeof document === 'undefined' || typeof window.addEventListener !== 'function') return () => setCacheFlush(null);
-    const save = () => void flush();
+    const save = () => void copy.flush();
     const hidden = () => document.visibilityState === 'hidden' && save();
     window.addEventListener('pagehide', save);
     document.addEventListener('visibilitychange', hidden);
@@ -149,7 +156,7 @@ function useImmediateSave(queryClient: QueryClient, userId: string) {
       document.removeEventListener('visibilitychange', hidden);
       setCacheFlush(null);
     };
-  }, [queryClient, userId]);
+  }, [copy]);
 }
 
 function SignedOutCache() {
@@ -179,21 +186,12 @@ function RootStack() {
       }}
     >
       <Stack.Protected guard={signedIn}>
-        <Stack.Screen name="(tabs)" options={{ headerShown: false }} />
-        <Stack.Screen name="buildings/[buildingId]" options={{ title: 'Building' }} />
-        <Stack.Screen name="panels/[panelId]/index" options={{ title: 'Panel schedule' }} />
-        <Stack.Screen name="panels/[panelId]/edit" options={{ title: 'Edit panel' }} />
-        <Stack.Screen name="panels/[panelId]/new-circuit" options={{ title: 'Add circuit' }} />
-        <Stack.Screen name="panels/[panelId]/import" options={{ title: 'Import a schedule' }} />
-        <Stack.Screen name="panels/[panelId]/circuits/[circuitId]" options={{ title: 'Circuit' }} />
-        <Stack.Screen name="inspections/new" options={{ title: 'New inspection' }} />
-        <Stack.Screen name="inspections/[inspectionId]/index" options={{ title: 'Inspection' }} />
-        <Stack.Screen name="inspections/[inspectionId]/reading" options={{ title: 'Reading' }} />
+        {/* the title is what the back button of a screen above the tabs reads */}
+        <Stack.Screen name="(tabs)" options={{ headerShown: false, title: 'Ampwright' }} />
         <Stack.Screen name="bands/index" options={{ title: 'Time-current bands' }} />
         <Stack.Screen name="bands/new" options={{ title: 'New band' }} />
         <Stack.Screen name="deficiencies/new" options={{ title: 'New deficiency' }} />
         <Stack.Screen name="deficiencies/[deficiencyId]" options={{ title: 'Deficiency' }} />
-        <Stack.Screen name="trips/new" options={{ title: 'Record a trip' }} />
         <Stack.Screen name="users/index" options={{ title: 'Users and access' }} />
       </Stack.Protected>
       <Stack.Protected guard={!signedIn}>

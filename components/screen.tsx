@@ -1,9 +1,15 @@
 import { ScrollView, StyleSheet, View, type ViewProps } from 'react-native';
+import { StorageProblem } from './storage-problem';
 import { colours, space } from './theme';
 
 /** Page body: paper background, comfortable padding, a readable column on wide screens. */
 export function Screen({ children, scroll = true, wide = false, style }: ViewProps & { scroll?: boolean; wide?: boolean }) {
-  const inner = <View style={[styles.column, wide && styles.wideColumn, style]}>{children}</View>;
+  const inner = (
+    <View style={[styles.column, wide && styles.wideColumn, style]}>
+      <StorageProblem />
+      {children}
+    </View>
+  );
   if (!scroll) return <View style={styles.page}>{inner}</View>;
   return (
     <ScrollView style={styles.page} contentContainerStyle={styles.content} keyboardShouldPersistTaps="handled">

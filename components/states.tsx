@@ -1,6 +1,7 @@
 import { ActivityIndicator, StyleSheet, View } from 'react-native';
 import { describeError } from '@/lib/api';
 import { Button } from './button';
+import { StorageProblem } from './storage-problem';
 import { Text } from './text';
 import { colours, space } from './theme';
 
@@ -16,6 +17,7 @@ export function LoadingState({ what }: { what: string }) {
 export function ErrorState({ error, onRetry }: { error: unknown; onRetry?: () => void }) {
   return (
     <View style={styles.centre} accessibilityRole="alert">
+      <StorageProblem />
       <Text variant="heading">Could not load this</Text>
       <Text tone="soft" style={styles.text}>
         {describeError(error)}
@@ -28,6 +30,7 @@ export function ErrorState({ error, onRetry }: { error: unknown; onRetry?: () =>
 export function EmptyState({ title, hint, children }: { title: string; hint: string; children?: React.ReactNode }) {
   return (
     <View style={styles.centre}>
+      <StorageProblem />
       <Text variant="heading">{title}</Text>
       <Text tone="soft" style={styles.text}>
         {hint}

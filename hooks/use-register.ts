@@ -55,9 +55,16 @@ export function findPanel(r: Replica, panelId: string) {
   return null;
 }
 
-/** `null` when the panel is not on this device. */
+/**
+ * `null` when the panel is not on this device; no data yet while its circuits are still being
+ * read back from the device's storage after a reload (a screen then shows "loading", not gaps).
+ */
 export function usePanel(panelId: string) {
-  return useReplica(useCallback((r: Replica) => findPanel(r, panelId), [panelId]));
+  const query = useReplica(
+    useCallback((r: Replica) => (r.unloadedPanels?.[panelId] ? 'reading' : findPanel(r, panelId)), [panelId]),
+  );
+  if (query.data !== 'reading') return { ...query, data: query.data };
+  return { ...query, data: undefined, isError: false };
 }
 
 /** Everything the Sync tab shows: conflicts from the copy, refused and synced from the log. */

@@ -49,6 +49,11 @@ export interface SyncedChange {
 export interface Replica {
   buildings: Record<string, BuildingCopy>;
   lastSyncAt: string | null;
+  /**
+   * Panels whose circuits are still being read from the device's storage after a reload (the
+   * panel the page opened is read first): a screen of one of them waits instead of showing gaps.
+   */
+  unloadedPanels?: Record<string, true>;
 }
 
 export const EMPTY_REPLICA: Replica = { buildings: {}, lastSyncAt: null };

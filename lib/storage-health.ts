@@ -1,20 +1,38 @@
-/** Whether the last save of the device's cache failed (storage full, private mode…). */
+/**
+ * What went wrong with the device's storage, for the banner every screen shows: the last save
+ * failed (storage full, private mode…), or something saved could not be read back after a reload.
+ */
 type Listener = () => void;
-let problem: string | null = null;
+let saveProblem: string | null = null;
+let readProblem: string | null = null;
 const listeners = new Set<Listener>();
+const tell = () => listeners.forEach((l) => l());
 
 export function reportPersistFailure(error: Error): void {
-  problem =
+  saveProblem =
     error.name === 'QuotaExceededError'
       ? 'This device is out of storage: the building copy could not be saved. Your unsent changes are kept; free some space.'
       : `Saving on this device failed (${error.message}). Your unsent changes are kept in memory; do not close the app.`;
-  listeners.forEach((l) => l());
+  tell();
 }
 
 export function reportPersistOk(): void {
-  if (problem === null) return;
-  problem = null;
-  listeners.forEach((l) => l());
+  if (saveProblem === null) return;
+  saveProblem = null;
+  tell();
+}
+
+/** Something stored could not be read back (cut short, damaged, another shape). */
+export function reportCopyProblem(message: string): void {
+  readProblem = message;
+  tell();
+}
+
+/** A pull brought the buildings back: what could not be read is replaced. */
+export function clearCopyProblem(): void {
+  if (readProblem === null) return;
+  readProblem = null;
+  tell();
 }
 
 export function subscribePersistProblem(listener: Listener): () => void {
@@ -22,4 +40,4 @@ export function subscribePersistProblem(listener: Listener): () => void {
   return () => listeners.delete(listener);
 }
 
-export const getPersistProblem = (): string | null => problem;
+export const getPersistProblem = (): string | null => saveProblem ?? readProblem;

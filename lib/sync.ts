@@ -6,6 +6,7 @@ import type { Mutation as QueryMutation, QueryClient } from '@tanstack/react-que
 import { SCHEMA_VERSION, type Mutation, type MutationResult, type PullResponse, type PushResponse } from '@/shared/sync';
 import { api, ApiError, describeError, NetworkError } from './api';
 import { deviceId, observe } from './device';
+import { clearCopyProblem } from './storage-health';
 import {
   applyMutation,
   applyPull,
@@ -46,7 +47,8 @@ export function pendingOutbox(queryClient: QueryClient): QueryMutation<unknown, 
     .findAll({ mutationKey: OUTBOX_KEY, status: 'pending' }) as QueryMutation<unknown, unknown, Mutation>[];
 }
 
-function rebase(queryClient: QueryClient, replica: Replica, userId: string): Replica {
+/** Lay the changes still queued on top of a copy (after a pull, after the copy is read back). */
+export function rebaseOnOutbox(queryClient: QueryClient, replica: Replica, userId: string): Replica {
   return pendingOutbox(queryClient).reduce(
     (r, m) => (m.state.variables ? applyMutation(r, m.state.variables, userId) : r),
     replica,
@@ -67,7 +69,8 @@ async function pullAll(queryClient: QueryClient, userId: string): Promise<Replic
     pulled = applyPull(pulled, response);
     if (!response.buildings.some((b) => b.hasMore)) break;
   }
-  return rebase(queryClient, { buildings: pulled.buildings, lastSyncAt: new Date().toISOString() }, userId);
+  clearCopyProblem();
+  return rebaseOnOutbox(queryClient, { buildings: pulled.buildings, lastSyncAt: new Date().toISOString() }, userId);
 }
 
 function updateReplica(queryClient: QueryClient, edit: (r: Replica) => Replica) {
@@ -85,11 +88,15 @@ function logResult(queryClient: QueryClient, m: Mutation, result: MutationResult
  * Defaults for the replica query and the outbox. Registered before the persisted cache is
  * restored: a restored mutation only knows its key, and finds its function and scope here.
  */
-export function configureSync(queryClient: QueryClient, userId: string): void {
+export function configureSync(queryClient: QueryClient, userId: string, restored: Promise<void> = Promise.resolve()): void {
   // written only by the outbox; never fetched
   queryClient.setQueryDefaults(SYNC_LOG_KEY, { queryFn: () => EMPTY_SYNC_LOG, staleTime: Infinity, gcTime: Infinity });
   queryClient.setQueryDefaults(REPLICA_KEY, {
-    queryFn: () => pullAll(queryClient, userId),
+    // a pull lands on the whole copy: wait until every panel saved on the device is read back
+    queryFn: async () => {
+      await restored;
+      return pullAll(queryClient, userId);
+    },
     networkMode: 'offlineFirst',
     retry: false,
     staleTime: 10_000,

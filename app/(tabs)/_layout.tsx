@@ -23,7 +23,8 @@ export default function TabsLayout() {
         headerRight: () => <SyncStatus />,
       }}
     >
-      <Tabs.Screen name="index" options={{ title: 'Buildings', tabBarIcon: icon('▦') }} />
+      {/* a stack of its own (app/(tabs)/(home)/_layout.tsx) with its own header */}
+      <Tabs.Screen name="(home)" options={{ title: 'Buildings', headerShown: false, tabBarIcon: icon('▦') }} />
       <Tabs.Screen name="findings" options={{ title: 'Findings', tabBarIcon: icon('◎') }} />
       <Tabs.Screen name="sync" options={{ title: 'Sync', tabBarIcon: icon('⇅') }} />
       <Tabs.Screen name="me" options={{ title: 'Me', tabBarIcon: icon('●') }} />

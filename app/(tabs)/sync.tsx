@@ -1,5 +1,4 @@
 import { StyleSheet, View } from 'react-native';
-import { useSyncExternalStore } from 'react';
 import { Button } from '@/components/button';
 import { PhotosWaiting } from '@/components/photos';
 import { Screen } from '@/components/screen';
@@ -8,7 +7,6 @@ import { colours, radii, space } from '@/components/theme';
 import { stampTime, timeAgo } from '@/components/time-ago';
 import { canRestore, useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
 import { useSyncReview } from '@/hooks/use-register';
-import { getPersistProblem, subscribePersistProblem } from '@/lib/storage-health';
 import { recordsOf, type BuildingCopy } from '@/lib/replica';
 import type { Conflict } from '@/shared/sync';
 
@@ -24,7 +22,6 @@ export default function Sync() {
   const outbox = useOutbox();
   const review = useSyncReview();
   const { syncNow, pulling } = useSyncNow();
-  const persistProblem = useSyncExternalStore(subscribePersistProblem, getPersistProblem, () => null);
   const data = review;
   const needsReview = data.conflicts.length + data.refused.length;
 
@@ -35,11 +32,6 @@ export default function Sync() {
           {online ? 'Connected' : 'Offline — changes stay on this device'}
         </Text>
         <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data.lastSyncAt)}</Text>
-        {persistProblem && (
-          <View style={styles.problem} accessibilityRole="alert" testID="storage-problem">
-            <Text variant="small">⚠ {persistProblem}</Text>
-          </View>
-        )}
         <Button label={pulling ? 'Syncing…' : 'Sync now'} busy={pulling} onPress={syncNow} testID="sync-now" />
       </View>
 
@@ -151,7 +143,6 @@ const styles = StyleSheet.create({
   card: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
   row: { flexDirection: 'row', alignItems: 'center', gap: space.sm, paddingVertical: space.xs, borderBottomWidth: StyleSheet.hairlineWidth, borderBottomColor: colours.rule },
   flex: { flex: 1 },
-  problem: { backgroundColor: colours.warnSoft, padding: space.sm, borderRadius: radii.sm },
   review: { gap: space.xs, padding: space.md, borderRadius: radii.md, borderWidth: 1, borderColor: colours.danger, backgroundColor: colours.dangerSoft },
   actions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap' },
 });
