@@ -100,8 +100,10 @@ test('a damaged stored copy is said so, re-pulled, and the queued change kept', 
 
   await context.setOffline(false);
   await expectStatus(page, 'synced', 60_000);
+  // the pull brought the buildings back: the notice goes, and the schedule opens again
+  await expect(page.getByTestId('storage-problem').filter({ visible: true })).toHaveCount(0, { timeout: 60_000 });
   await page.goto(panelUrl);
-  await expect(page.getByTestId('position-7')).toContainText(`LA 7 kept ${run}`);
+  await expect(page.getByTestId('position-7')).toContainText(`LA 7 kept ${run}`, { timeout: 30_000 });
   expect(await serverDescriptions('LA', [7])).toEqual({ 7: `LA 7 kept ${run}` });
   await context.close();
 });
