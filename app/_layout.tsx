@@ -1,4 +1,4 @@
-import { QueryClientProvider } from '@tanstack/react-query';
+import { QueryClientProvider, type QueryClient } from '@tanstack/react-query';
 import { PersistQueryClientProvider } from '@tanstack/react-query-persist-client';
 import { useFonts } from 'expo-font';
 import { SplashScreen, Stack } from 'expo-router';
@@ -129,14 +129,19 @@ function OwnedUserCache({ userId }: { userId: string }) {
     <PersistQueryClientProvider
       client={client}
       persistOptions={{ persister: copy.persister, maxAge: Infinity, buster: String(SCHEMA_VERSION), dehydrateOptions }}
-      onSuccess={() => {
-        resumeOutbox(client);
-        void copy.loadRest();
-      }}
+      onSuccess={() => afterRestore(client, copy)}
+      // the restore failed past the device copy's own checks (TanStack's hydrate): the app must
+      // still load the rest and sync, or a pull would wait for ever
+      onError={() => afterRestore(client, copy)}
     >
       <RootStack />
     </PersistQueryClientProvider>
   );
+}
+
+function afterRestore(client: QueryClient, copy: DeviceCopy) {
+  resumeOutbox(client);
+  void copy.loadRest();
 }
 
 /**

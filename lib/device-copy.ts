@@ -256,6 +256,27 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
   }
 
   async function loadRest(): Promise<void> {
+    try {
+      await readRest();
+    } catch (error) {
+      // storage failed mid-way: the buildings still partly read are dropped from memory (never
+      // saved half: their entries would lose the panels not read) and pulled again whole
+      const partial = [...unloaded.keys()];
+      queryClient.setQueryData<Replica>(REPLICA, (current) => {
+        if (!current) return current;
+        const buildings = Object.fromEntries(Object.entries(current.buildings).filter(([id]) => !partial.includes(id)));
+        const { unloadedPanels: _gone, ...rest } = current;
+        return { ...rest, buildings };
+      });
+      for (const buildingId of partial) await dropBuilding(buildingId, (error as Error).message);
+    } finally {
+      // whatever happened, the pull must not wait for ever
+      unloaded.clear();
+      markLoaded();
+    }
+  }
+
+  async function readRest(): Promise<void> {
     const found = new Map<string, Circuit[]>();
     const bad = new Map<string, string>();
     for (const [buildingId, panelIds] of unloaded) {
