@@ -4,6 +4,7 @@ import { useFonts } from 'expo-font';
 import { SplashScreen, Stack } from 'expo-router';
 import { StatusBar } from 'expo-status-bar';
 import { useEffect, useMemo, useState } from 'react';
+import { Platform } from 'react-native';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { EmptyState, ErrorState, LoadingState } from '@/components/states';
 import { SyncStatus } from '@/components/sync-status';
@@ -42,7 +43,9 @@ export default function RootLayout() {
       setUserId(id);
     });
   }, []);
-  const ready = (fontsLoaded || !!fontError) && userId !== undefined;
+  // the web swaps the faces in when they arrive: a schedule opened with no signal should not wait
+  // for them (a phone would otherwise keep its splash screen up a moment longer)
+  const ready = (fontsLoaded || !!fontError || Platform.OS === 'web') && userId !== undefined;
   useEffect(() => {
     if (!ready) return;
     SplashScreen.hideAsync().catch(() => undefined);
