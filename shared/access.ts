@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { ROLES, type Role } from './domain';
+import { text, textProblem } from './text';
 
 export const PASSWORD_MIN = 10;
 export const INVITATION_DAYS = 7;
@@ -19,7 +20,8 @@ export const ROLE_LABELS: Record<Role, string> = {
 const password = z
   .string()
   .min(PASSWORD_MIN, `use at least ${PASSWORD_MIN} characters`)
-  .max(200, 'use at most 200 characters');
+  .max(200, 'use at most 200 characters')
+  .refine((p) => textProblem(p, false) === null, 'use letters, digits, spaces and symbols only');
 
 export const inviteBody = z
   .object({
@@ -34,7 +36,7 @@ export const inviteBody = z
 export type InviteBody = z.input<typeof inviteBody>;
 
 export const acceptInvitationBody = z.object({
-  name: z.string().trim().min(1, 'enter your name').max(120, 'use at most 120 characters'),
+  name: text(120).min(1, 'enter your name'),
   password,
 });
 export type AcceptInvitationBody = z.infer<typeof acceptInvitationBody>;
