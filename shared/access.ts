@@ -40,6 +40,17 @@ export const acceptInvitationBody = z.object({
   password,
 });
 export type AcceptInvitationBody = z.infer<typeof acceptInvitationBody>;
+/** An existing account confirms with its own password (not needed when signed in as it). */
+export const existingAccountAcceptBody = z.object({ password: z.string().min(1, 'enter your password').max(200) });
+/**
+ * What `POST /api/invitations/:token/accept` takes: `{ name, password }` for a new account
+ * (acceptInvitationBody), `{ password }` for an existing one, `{}` when signed in as it.
+ */
+export const acceptInvitationRequest = z.object({
+  name: z.string().max(200).optional(),
+  password: z.string().max(200).optional(),
+});
+export type AcceptInvitationRequest = z.infer<typeof acceptInvitationRequest>;
 
 export const forgotPasswordBody = z.object({ email: z.email('enter an e-mail address').max(200) });
 export type ForgotPasswordBody = z.infer<typeof forgotPasswordBody>;
@@ -60,6 +71,8 @@ export interface InvitationView {
   organisationName: string;
   role: Role;
   expiresAt: string;
+  /** `existing`: the address has an account, which accepts with its own password */
+  account: 'new' | 'existing';
 }
 
 export interface Person {
@@ -88,8 +101,8 @@ export interface PeopleResponse {
 }
 
 export interface InviteResponse {
-  /** an invitation was e-mailed, or the account existed and the membership was added */
-  outcome: 'invited' | 'membership_added';
+  /** an invitation was e-mailed (the same answer whether or not the address has an account) */
+  outcome: 'invited';
   message: string;
 }
 

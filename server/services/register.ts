@@ -576,7 +576,8 @@ export function untombstone<T extends SyncColumns>(
 function organisationFor(actor: Actor, requested: string | undefined): string {
   const editable = [...actor.roles].filter(([, role]) => role === 'admin' || role === 'electrician');
   if (requested) {
-    if (!actor.roles.has(requested)) throw new ValidationError({ organisationId: 'not one of your organisations' });
+    // another organisation is not disclosed, as everywhere: 404 (tests/api/security-matrix.test.ts)
+    if (!actor.roles.has(requested)) throw new NotFoundError('Organisation');
     return requested;
   }
   if (editable.length === 1) return editable[0][0];
