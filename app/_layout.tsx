@@ -205,9 +205,10 @@ function RootStack() {
       <Stack.Protected guard={!signedIn}>
         <Stack.Screen name="sign-in" options={{ headerShown: false }} />
         <Stack.Screen name="forgot-password" options={{ headerShown: false }} />
-        <Stack.Screen name="invitation/[token]" options={{ headerShown: false }} />
         <Stack.Screen name="reset-password/[token]" options={{ headerShown: false }} />
       </Stack.Protected>
+      {/* signed in or out: an existing account may accept while signed in as itself */}
+      <Stack.Screen name="invitation/[token]" options={{ headerShown: false }} />
       <Stack.Screen name="+not-found" options={{ title: 'Not found' }} />
     </Stack>
   );

@@ -1,13 +1,22 @@
 /**
- * The signed-out pages behind the e-mailed links: accept an invitation, choose a new password,
- * and ask for a reset link.
+ * The pages behind the e-mailed links: accept an invitation (signed in or out), choose a new
+ * password, and ask for a reset link (signed out).
  */
-import { Link } from 'expo-router';
+import { Link, Redirect, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { useAcceptInvitation, useForgotPassword, useInvitation, usePasswordReset, useResetPassword } from '@/hooks/use-access';
+import { useSession } from '@/hooks/use-session';
 import { ApiError, describeError } from '@/lib/api';
-import { acceptInvitationBody, forgotPasswordBody, PASSWORD_MIN, resetPasswordBody, ROLE_LABELS } from '@/shared/access';
+import {
+  acceptInvitationBody,
+  existingAccountAcceptBody,
+  forgotPasswordBody,
+  PASSWORD_MIN,
+  resetPasswordBody,
+  ROLE_LABELS,
+  type InvitationView,
+} from '@/shared/access';
 import { fieldErrors } from '@/shared/schemas';
 import { card, Notice } from './access-parts';
 import { Button } from './button';
@@ -38,21 +47,108 @@ function clear(key: string) {
   };
 }
 
+/**
+ * The invitation link's page, signed in or out. A new address chooses a name and a password; an
+ * address that already has an account confirms with that account's password (or with one tap
+ * when signed in as it); signed in as someone else, it says to sign out first.
+ */
 export function AcceptInvitation({ token }: { token: string }) {
   const invitation = useInvitation(token);
+  const session = useSession();
+  if (invitation.isPending || session.isPending) return <LoadingState what="the invitation" />;
+  const me = session.data?.user;
+  // accepting signs in (and a new account remounts the app's cache): the used link then leads home
+  const used = invitation.error instanceof ApiError && invitation.error.code === 'used';
+  if (me && used) return <Redirect href="/" />;
+  if (invitation.isError) return <LinkProblem error={invitation.error} what="invitation" />;
+  const inv = invitation.data;
+  if (me && me.email.toLowerCase() === inv.email.toLowerCase()) return <JoinAsSignedIn token={token} inv={inv} />;
+  if (me) {
+    return (
+      <View style={card} testID="invitation-other-account" accessibilityRole="alert">
+        <Text variant="heading">This invitation is for {inv.email}</Text>
+        <Text tone="soft">
+          You are signed in as {me.email}. Sign out first (under Me), then open the link again to join {inv.organisationName}.
+        </Text>
+        <Link href="/" style={styles.link}>
+          <Text tone="copper">Back to the app</Text>
+        </Link>
+      </View>
+    );
+  }
+  return inv.account === 'existing' ? <JoinWithPassword token={token} inv={inv} /> : <JoinAsNewAccount token={token} inv={inv} />;
+}
+
+type JoinProps = { token: string; inv: InvitationView };
+
+function JoinAsSignedIn({ token, inv }: JoinProps) {
   const accept = useAcceptInvitation(token);
+  const router = useRouter();
+  return (
+    <View style={card} testID="accept-invitation">
+      <Text variant="heading">Join {inv.organisationName}</Text>
+      <Text tone="soft">You were invited as {ROLE_LABELS[inv.role].toLowerCase()}. Your account and password stay as they are.</Text>
+      {accept.error && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
+      <Button
+        label={`Join ${inv.organisationName}`}
+        onPress={() => accept.mutate({}, { onSuccess: () => router.replace('/') })}
+        busy={accept.isPending}
+        testID="accept-submit"
+      />
+    </View>
+  );
+}
+
+function JoinWithPassword({ token, inv }: JoinProps) {
+  const accept = useAcceptInvitation(token);
+  const router = useRouter();
+  const [password, setPassword] = useState('');
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const serverFields = accept.error instanceof ApiError ? accept.error.fields : undefined;
+  const submit = () => {
+    const parsed = existingAccountAcceptBody.safeParse({ password });
+    if (!parsed.success) return setErrors(fieldErrors(parsed.error));
+    setErrors({});
+    accept.mutate(parsed.data, { onSuccess: () => router.replace('/') });
+  };
+  return (
+    <View style={card} testID="accept-invitation">
+      <Text variant="heading">Join {inv.organisationName}</Text>
+      <Text tone="soft">
+        You already use Ampwright with {inv.email}. Enter that account&apos;s password to join as {ROLE_LABELS[inv.role].toLowerCase()}; nothing
+        else about your account changes.
+      </Text>
+      <TextField
+        label="Your password"
+        value={password}
+        onChangeText={(v) => { setPassword(v); setErrors({}); }}
+        secureTextEntry
+        autoComplete="current-password"
+        onSubmitEditing={submit}
+        error={errors.password ?? serverFields?.password}
+        testID="invite-existing-password"
+      />
+      {accept.error && !serverFields && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
+      <Button label="Join and sign in" onPress={submit} busy={accept.isPending} testID="accept-submit" />
+      <Link href="/forgot-password" style={styles.link}>
+        <Text tone="copper">Forgot the password?</Text>
+      </Link>
+    </View>
+  );
+}
+
+function JoinAsNewAccount({ token, inv }: JoinProps) {
+  const accept = useAcceptInvitation(token);
+  const router = useRouter();
   const [name, setName] = useState('');
   const [password, setPassword] = useState('');
   const [errors, setErrors] = useState<Record<string, string>>({});
-  if (invitation.isPending) return <LoadingState what="the invitation" />;
-  if (invitation.isError) return <LinkProblem error={invitation.error} what="invitation" />;
-  const inv = invitation.data;
   const serverFields = accept.error instanceof ApiError ? accept.error.fields : undefined;
   const submit = () => {
     const parsed = acceptInvitationBody.safeParse({ name, password });
     if (!parsed.success) return setErrors(fieldErrors(parsed.error));
     setErrors({});
-    accept.mutate(parsed.data);
+    accept.mutate(parsed.data, { onSuccess: () => router.replace('/') });
   };
   return (
     <View style={card} testID="accept-invitation">

@@ -6,7 +6,7 @@ import { useContext } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api';
 import type {
-  AcceptInvitationBody,
+  AcceptInvitationRequest,
   InvitationView,
   InviteBody,
   InviteResponse,
@@ -80,8 +80,11 @@ function useSignedInBy<V>(fn: (v: V) => Promise<unknown>) {
       return api.get<MeResponse>('/me');
     },
     onSuccess: (me) => {
-      if (account.userId === me.user.id) queryClient.setQueryData(keys.me, me);
-      else account.switchTo(me.user.id);
+      if (account.userId === me.user.id) {
+        queryClient.setQueryData(keys.me, me);
+        // an invitation accepted while signed in adds an organisation: pull its buildings
+        void queryClient.invalidateQueries({ queryKey: keys.replica });
+      } else account.switchTo(me.user.id);
     },
   });
 }
@@ -95,7 +98,7 @@ export function useInvitation(token: string) {
 }
 
 export function useAcceptInvitation(token: string) {
-  return useSignedInBy((body: AcceptInvitationBody) => api.post(`/invitations/${token}/accept`, body));
+  return useSignedInBy((body: AcceptInvitationRequest) => api.post(`/invitations/${token}/accept`, body));
 }
 
 export function useForgotPassword() {

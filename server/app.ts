@@ -9,6 +9,7 @@ import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
 import { errorHandler } from './http/error-handler';
 import { requestLog } from './http/request-log';
+import { jsonBodiesOnly, sameOriginOnly } from './http/same-origin';
 import { accessRouter } from './routes/access';
 import { documentsRouter } from './routes/documents';
 import { photosRouter } from './routes/photos';
@@ -21,7 +22,7 @@ import { PhotoStore, type PhotoStoreConfig } from './services/photo-store';
 
 export interface AppDeps {
   dataSource: DataSource;
-  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY' | 'PUBLIC_URL'> & PhotoStoreConfig & MailConfig;
+  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY' | 'PUBLIC_URL' | 'ALLOWED_ORIGINS'> & PhotoStoreConfig & MailConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
 }
@@ -47,6 +48,9 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
     }),
   );
   app.use(requestLog);
+  // before any session or body is read: a cross-site write, or a body that is not JSON (photos
+  // are multipart), is refused here (server/http/same-origin.ts)
+  app.use('/api', sameOriginOnly(config), jsonBodiesOnly(/^\/photos\//));
 
   // health first and without a session: load balancers call it often
   app.get('/api/health', async (_req, res) => {

@@ -38,6 +38,23 @@ const configSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Ampwright <no-reply@ampwright.invalid>'),
   /** where the app is reached, for the links in e-mails; defaults to http://HOST:PORT */
   APP_URL: z.url({ error: 'a URL such as https://ampwright.example.net' }).optional(),
+  /**
+   * further origins the app is served from (comma-separated, e.g. `https://a.example.net,
+   * https://b.example.net:8443`): unsafe API requests from any other origin are refused as
+   * cross-site (server/http/same-origin.ts). The request's own host, APP_URL and PUBLIC_URL always count.
+   */
+  ALLOWED_ORIGINS: z
+    .string()
+    .optional()
+    .transform((v, ctx) => {
+      const origins: string[] = [];
+      for (const part of (v ?? '').split(',').map((p) => p.trim()).filter(Boolean)) {
+        const origin = URL.canParse(part) ? new URL(part).origin : 'null';
+        if (origin === 'null') ctx.addIssue({ code: 'custom', message: `${part}: an origin such as https://ampwright.example.net` });
+        else origins.push(origin);
+      }
+      return origins;
+    }),
 }).refine((c) => (c.S3_ACCESS_KEY_ID === undefined) === (c.S3_SECRET_ACCESS_KEY === undefined), {
   path: ['S3_SECRET_ACCESS_KEY'],
   message: 'set S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY together, or neither',

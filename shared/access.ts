@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { ROLES, type Role } from './domain';
+import { text, textProblem } from './text';
 
 export const PASSWORD_MIN = 10;
 export const INVITATION_DAYS = 7;
@@ -19,7 +20,8 @@ export const ROLE_LABELS: Record<Role, string> = {
 const password = z
   .string()
   .min(PASSWORD_MIN, `use at least ${PASSWORD_MIN} characters`)
-  .max(200, 'use at most 200 characters');
+  .max(200, 'use at most 200 characters')
+  .refine((p) => textProblem(p, false) === null, 'use letters, digits, spaces and symbols only');
 
 export const inviteBody = z
   .object({
@@ -34,10 +36,21 @@ export const inviteBody = z
 export type InviteBody = z.input<typeof inviteBody>;
 
 export const acceptInvitationBody = z.object({
-  name: z.string().trim().min(1, 'enter your name').max(120, 'use at most 120 characters'),
+  name: text(120).min(1, 'enter your name'),
   password,
 });
 export type AcceptInvitationBody = z.infer<typeof acceptInvitationBody>;
+/** An existing account confirms with its own password (not needed when signed in as it). */
+export const existingAccountAcceptBody = z.object({ password: z.string().min(1, 'enter your password').max(200) });
+/**
+ * What `POST /api/invitations/:token/accept` takes: `{ name, password }` for a new account
+ * (acceptInvitationBody), `{ password }` for an existing one, `{}` when signed in as it.
+ */
+export const acceptInvitationRequest = z.object({
+  name: z.string().max(200).optional(),
+  password: z.string().max(200).optional(),
+});
+export type AcceptInvitationRequest = z.infer<typeof acceptInvitationRequest>;
 
 export const forgotPasswordBody = z.object({ email: z.email('enter an e-mail address').max(200) });
 export type ForgotPasswordBody = z.infer<typeof forgotPasswordBody>;
@@ -58,6 +71,8 @@ export interface InvitationView {
   organisationName: string;
   role: Role;
   expiresAt: string;
+  /** `existing`: the address has an account, which accepts with its own password */
+  account: 'new' | 'existing';
 }
 
 export interface Person {
@@ -86,8 +101,8 @@ export interface PeopleResponse {
 }
 
 export interface InviteResponse {
-  /** an invitation was e-mailed, or the account existed and the membership was added */
-  outcome: 'invited' | 'membership_added';
+  /** an invitation was e-mailed (the same answer whether or not the address has an account) */
+  outcome: 'invited';
   message: string;
 }
 

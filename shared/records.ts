@@ -7,10 +7,8 @@
 import { z } from 'zod';
 import { CONDUCTOR_SIZES } from './domain';
 import { idSchema, syncColumns } from './schemas';
+import { isoDate, longText, requiredLongText, requiredText, text } from './text';
 
-const text = (max: number) => z.string().trim().max(max, `at most ${max} characters`);
-const requiredText = (max: number, what: string) => text(max).min(1, `${what} is required`);
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date as YYYY-MM-DD');
 const isoDateTime = z.iso.datetime({ offset: true, error: 'a date and time' });
 const num = (what: string) => z.number({ error: `must be a number${what ? ` of ${what}` : ''}` });
 const enumOf = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
@@ -104,7 +102,7 @@ const inspectionFieldsBase = z.object({
   ambientC: num('°C').min(-40, 'at least −40 °C').max(80, 'at most 80 °C').nullable(),
   /** load at the time, % of normal (NFPA 70B: at least 40 % for a thermal survey) */
   loadPct: num('%').min(0, 'cannot be negative').max(200, 'at most 200 %').nullable(),
-  notes: text(4000),
+  notes: longText(4000),
 });
 export const inspectionCreateBody = inspectionFieldsBase.extend({
   ambientC: inspectionFieldsBase.shape.ambientC.default(null),
@@ -141,7 +139,7 @@ const readingFieldsBase = z.object({
   panelId: idSchema,
   kind: enumOf(READING_KINDS, 'kind'),
   circuitId: idSchema.nullable(),
-  notes: text(2000),
+  notes: longText(2000),
   // thermal
   component: enumOf(THERMAL_COMPONENTS, 'component').nullable(),
   phase: enumOf(READING_PHASES, 'phase').nullable(),
@@ -263,17 +261,17 @@ const deficiencyFieldsBase = z.object({
   source: enumOf(DEFICIENCY_SOURCES, 'source'),
   check: enumOf(VISUAL_CHECK_KEYS, 'check').nullable(),
   title: requiredText(160, 'a title'),
-  description: text(4000),
+  description: longText(4000),
   priority,
   /** why the priority differs from the one the reading gave (required then) */
-  priorityReason: text(500),
+  priorityReason: longText(500),
   dueOn: isoDate,
   status: enumOf(DEFICIENCY_STATUSES, 'status'),
   assigneeId: idSchema.nullable(),
   /** what the repair was (evidence: this note or a repair photo) */
-  repairNote: text(2000),
+  repairNote: longText(2000),
   /** the owner's reason to defer and when to look again */
-  deferReason: text(1000),
+  deferReason: longText(1000),
   reviewOn: isoDate.nullable(),
   /** the owner accepted the repair plan */
   acceptedAt: isoDateTime.nullable(),
@@ -318,7 +316,7 @@ export type Deficiency = z.infer<typeof deficiencySchema>;
 /** One line of a deficiency's history: a change the server recorded, or a comment. */
 export const commentCreateBody = z.object({
   deficiencyId: idSchema,
-  text: requiredText(2000, 'a comment'),
+  text: requiredLongText(2000, 'a comment'),
 });
 export type CommentCreateBody = z.infer<typeof commentCreateBody>;
 export const deficiencyEntrySchema = syncColumnsObject.extend({
@@ -344,7 +342,7 @@ const tripFieldsBase = z.object({
   /** load current at or just before the trip, if known */
   loadA: num('amperes').min(0, 'cannot be negative').max(10000).nullable(),
   /** what was happening */
-  circumstances: text(2000),
+  circumstances: longText(2000),
 });
 export const tripCreateBody = tripFieldsBase.extend({
   loadA: tripFieldsBase.shape.loadA.default(null),
@@ -397,7 +395,7 @@ const bandFieldsBase = z.object({
   label: requiredText(120, 'a label'),
   ratingA: num('amperes').int('whole amperes').positive('must be more than 0').max(6000),
   /** where the points were read from: the maker's curve number and edition */
-  source: text(300),
+  source: longText(300),
   points: z
     .array(bandPointSchema)
     .min(2, 'at least two points of the curve')

@@ -15,15 +15,13 @@ import {
   ROLES,
   SYSTEMS,
 } from './domain';
+import { isoDate, longText, requiredText, text } from './text';
 
-const text = (max: number) => z.string().trim().max(max, `at most ${max} characters`);
-const requiredText = (max: number, what: string) => text(max).min(1, `${what} is required`);
 const amps = z
   .number({ error: 'must be a number of amperes' })
   .int('whole amperes')
   .positive('must be more than 0')
   .max(6000, 'at most 6000 A');
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'a date as YYYY-MM-DD');
 const literalUnion = <T extends readonly (string | number)[]>(values: T, what: string) =>
   z.union(values.map((v) => z.literal(v)) as never as [z.ZodLiteral<T[number]>], {
     error: `${what}: one of ${values.join(', ')}`,
@@ -75,8 +73,8 @@ export type MeResponse = z.infer<typeof meResponse>;
 
 export const buildingFields = z.object({
   name: requiredText(120, 'a name'),
-  address: text(300),
-  notes: text(2000),
+  address: longText(300),
+  notes: longText(2000),
 });
 export const buildingCreateBody = buildingFields.extend({
   id: idSchema.optional(),
@@ -203,7 +201,7 @@ const circuitFieldsBase = z.object({
   status: z.enum(CIRCUIT_STATUSES, { error: 'in-use, spare or space' }),
   feedsPanelId: idSchema.nullable(),
   handleLock: z.boolean(),
-  notes: text(2000),
+  notes: longText(2000),
   /** the time-current band of the organisation's library its trip tests are judged against */
   bandId: idSchema.nullable(),
 });

@@ -196,6 +196,8 @@ export const mutationResultSchema = z.object({
   version: z.number(),
   conflictIds: z.array(z.string()).optional(),
   reason: z.string().optional(),
+  /** for a rejection of bad input: the field → what is wrong with it */
+  fields: z.record(z.string(), z.string()).optional(),
   /** for a duplicate: the status of the first answer */
   originalStatus: z.enum(['applied', 'conflict', 'rejected']).optional(),
 });

@@ -39,7 +39,7 @@ export class Circuit extends SyncColumns {
   @Column('text', { name: 'load_kind' })
   loadKind: LoadKind;
 
-  @Column('real', { name: 'load_va', nullable: true })
+  @Column('double precision', { name: 'load_va', nullable: true })
   loadVA: number | null;
 
   @Column('boolean', { default: false })
@@ -54,7 +54,7 @@ export class Circuit extends SyncColumns {
   @Column('smallint', { name: 'insulation_temp_c', nullable: true })
   insulationTempC: InsulationTempC | null;
 
-  @Column('real', { name: 'length_ft', nullable: true })
+  @Column('double precision', { name: 'length_ft', nullable: true })
   lengthFt: number | null;
 
   @Column('text')

@@ -23,10 +23,10 @@ export class CurveBand {
   @Column('jsonb')
   points: { multiple: number; minS: number; maxS: number }[];
 
-  @Column('real', { name: 'instantaneous_multiple', nullable: true })
+  @Column('double precision', { name: 'instantaneous_multiple', nullable: true })
   instantaneousMultiple: number | null;
 
-  @Column('real', { name: 'instantaneous_tolerance_pct', nullable: true })
+  @Column('double precision', { name: 'instantaneous_tolerance_pct', nullable: true })
   instantaneousTolerancePct: number | null;
 
   @Column('timestamptz', { name: 'updated_at' })

@@ -18,10 +18,10 @@ export class Inspection extends SyncColumns {
   @Column('text', { name: 'performed_on' })
   performedOn: string;
 
-  @Column('real', { name: 'ambient_c', nullable: true })
+  @Column('double precision', { name: 'ambient_c', nullable: true })
   ambientC: number | null;
 
-  @Column('real', { name: 'load_pct', nullable: true })
+  @Column('double precision', { name: 'load_pct', nullable: true })
   loadPct: number | null;
 
   @Column('text', { default: '' })

@@ -27,7 +27,7 @@ export class Panel extends SyncColumns {
   @Column('integer', { name: 'main_rating_a', nullable: true })
   mainRatingA: number | null;
 
-  @Column('real', { name: 'short_circuit_ka', nullable: true })
+  @Column('double precision', { name: 'short_circuit_ka', nullable: true })
   shortCircuitKA: number | null;
 
   @Column('integer')

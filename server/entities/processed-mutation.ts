@@ -9,7 +9,8 @@ export class ProcessedMutation {
   @PrimaryColumn('uuid', { name: 'mutation_id', primaryKeyConstraintName: 'pk_processed_mutation' })
   mutationId: string;
 
-  @Column('uuid', { name: 'user_id' })
+  /** first in the key: an account only ever meets its own records (migration 1765420000000) */
+  @PrimaryColumn('uuid', { name: 'user_id', primaryKeyConstraintName: 'pk_processed_mutation' })
   userId: string;
 
   @Column('jsonb', { nullable: true })

@@ -31,25 +31,25 @@ export class Reading extends SyncColumns {
   @Column('text', { nullable: true })
   phase: ReadingFields['phase'];
 
-  @Column('real', { name: 'temperature_c', nullable: true })
+  @Column('double precision', { name: 'temperature_c', nullable: true })
   temperatureC: number | null;
 
-  @Column('real', { name: 'reference_c', nullable: true })
+  @Column('double precision', { name: 'reference_c', nullable: true })
   referenceC: number | null;
 
   @Column('text', { name: 'reference_basis', nullable: true })
   referenceBasis: ReadingFields['referenceBasis'];
 
-  @Column('real', { name: 'load_a', nullable: true })
+  @Column('double precision', { name: 'load_a', nullable: true })
   loadA: number | null;
 
-  @Column('real', { name: 'reference_load_a', nullable: true })
+  @Column('double precision', { name: 'reference_load_a', nullable: true })
   referenceLoadA: number | null;
 
   @Column('text', { default: '' })
   fastener: string;
 
-  @Column('real', { nullable: true })
+  @Column('double precision', { nullable: true })
   specified: number | null;
 
   @Column('text', { nullable: true })
@@ -67,19 +67,19 @@ export class Reading extends SyncColumns {
   @Column('text', { name: 'as_found', nullable: true })
   asFound: ReadingFields['asFound'];
 
-  @Column('real', { name: 'as_found_value', nullable: true })
+  @Column('double precision', { name: 'as_found_value', nullable: true })
   asFoundValue: number | null;
 
-  @Column('real', { name: 'as_left', nullable: true })
+  @Column('double precision', { name: 'as_left', nullable: true })
   asLeft: number | null;
 
-  @Column('real', { name: 'test_current_a', nullable: true })
+  @Column('double precision', { name: 'test_current_a', nullable: true })
   testCurrentA: number | null;
 
   @Column('boolean', { nullable: true })
   tripped: boolean | null;
 
-  @Column('real', { name: 'trip_time_s', nullable: true })
+  @Column('double precision', { name: 'trip_time_s', nullable: true })
   tripTimeS: number | null;
 
   @Column('uuid', { name: 'band_id', nullable: true })

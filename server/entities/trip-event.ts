@@ -18,7 +18,7 @@ export class TripEvent extends SyncColumns {
   @Column('timestamptz', { name: 'occurred_at' })
   occurredAt: Date;
 
-  @Column('real', { name: 'load_a', nullable: true })
+  @Column('double precision', { name: 'load_a', nullable: true })
   loadA: number | null;
 
   @Column('text', { default: '' })

@@ -8,7 +8,7 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import {
-  acceptInvitationBody,
+  acceptInvitationRequest,
   FORGOT_PASSWORD_ANSWER,
   forgotPasswordBody,
   inviteBody,
@@ -20,6 +20,7 @@ import { requireUser } from '../auth/session';
 import { handle } from '../http/handle';
 import { logger } from '../logger';
 import * as access from '../services/access';
+import * as invitations from '../services/invitations';
 import { Mailer, type MailConfig } from '../services/mail';
 import { inspectionReportPdf } from '../services/pdf/report';
 import type { PhotoStore } from '../services/photo-store';
@@ -93,13 +94,13 @@ export function accessRouter(ds: DataSource, config: MailConfig & { SIGN_IN_LIMI
   router.get(
     '/invitations/:token',
     limiter,
-    handle({ params: tokenParams }, async ({ params }) => access.viewInvitation(ds.manager, params.token)),
+    handle({ params: tokenParams }, async ({ params }) => invitations.viewInvitation(ds.manager, params.token)),
   );
   router.post(
     '/invitations/:token/accept',
     limiter,
-    handle({ params: tokenParams, body: acceptInvitationBody }, async ({ params, body }, req) => {
-      const userId = await access.acceptInvitation(ds, params.token, body);
+    handle({ params: tokenParams, body: acceptInvitationRequest }, async ({ params, body }, req) => {
+      const userId = await invitations.acceptInvitation(ds, params.token, body, req.session.userId);
       await signInAs(req, userId);
       return { ok: true, userId };
     }, 201),
@@ -115,13 +116,13 @@ export function accessRouter(ds: DataSource, config: MailConfig & { SIGN_IN_LIMI
     '/organisations/:organisationId/invitations',
     user,
     handle({ params: orgParams, body: inviteBody }, async ({ params, body }, req) =>
-      access.invite(ds, mailer, req.actor, params.organisationId, body), 201),
+      invitations.invite(ds, mailer, req.actor, params.organisationId, body), 201),
   );
   router.delete(
     '/organisations/:organisationId/invitations/:invitationId',
     user,
     handle({ params: invitationParams }, async ({ params }, req) => {
-      await access.cancelInvitation(ds.manager, req.actor, params.organisationId, params.invitationId);
+      await invitations.cancelInvitation(ds.manager, req.actor, params.organisationId, params.invitationId);
       return { ok: true };
     }),
   );

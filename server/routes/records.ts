@@ -115,7 +115,10 @@ export function recordsRouter(ds: DataSource): Router {
       const circuitIds = readings.map((r) => r.circuitId).filter((c): c is string => !!c);
       const circuits = circuitIds.length ? await ds.manager.find(Circuit, { where: { id: In(circuitIds) } }) : [];
       const bandIds = [...readings.map((r) => r.bandId), ...circuits.map((c) => c.bandId)].filter((b): b is string => !!b);
-      const bands = bandIds.length ? await ds.manager.find(CurveBand, { where: { id: In(bandIds) } }) : [];
+      // only the building's own organisation's bands: a link to another's is never judged on
+      const bands = bandIds.length
+        ? await ds.manager.find(CurveBand, { where: { id: In(bandIds), organisationId: building.organisationId } })
+        : [];
       const deficiencies = await ds.manager.find(Deficiency, { where: { inspectionId: inspection.id, ...live } });
       const parentIds = [...readings.map((r) => r.id), ...deficiencies.map((d) => d.id)];
       const photos = parentIds.length

@@ -1,28 +1,17 @@
 /**
- * Users and access: the people of an organisation, invitations, password reset and sending an
- * inspection report to the building's owners. Only admins manage people. One-time tokens are
+ * Users and access: the people of an organisation, password reset and sending an inspection
+ * report to the building's owners (invitations: ./invitations.ts). Only admins manage people. One-time tokens are
  * 32 random bytes (base64url) e-mailed once; only their SHA-256 is stored.
  */
 import crypto from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
-import {
-  INVITATION_DAYS,
-  RESET_MINUTES,
-  ROLE_LABELS,
-  type AcceptInvitationBody,
-  type InvitationView,
-  type InviteResponse,
-  type PeopleResponse,
-} from '../../shared/access';
+import { RESET_MINUTES, type PeopleResponse } from '../../shared/access';
 import type { Role } from '../../shared/domain';
-import type { z } from 'zod';
-import type { inviteBody } from '../../shared/access';
 import { roleForBuilding, type Actor } from '../auth/access';
-import { Building, Inspection, Invitation, Membership, OneTimeToken, Organisation, OwnerGrant, User } from '../entities';
+import { Building, Inspection, Invitation, Membership, OneTimeToken, OwnerGrant, User } from '../entities';
 import { AppError, ForbiddenError, NotFoundError } from '../http/errors';
-import { logger } from '../logger';
 import { linkMessage, type Mailer } from './mail';
 
 const BCRYPT_ROUNDS = 10;
@@ -37,7 +26,7 @@ export function hashToken(token: string): string {
 }
 
 /** 404 for an organisation the actor is not in, 403 for a member who is not an admin. */
-function requireOrgAdmin(actor: Actor, organisationId: string, what: string): void {
+export function requireOrgAdmin(actor: Actor, organisationId: string, what: string): void {
   const role = actor.roles.get(organisationId);
   if (!role) throw new NotFoundError('Organisation');
   if (role !== 'admin') throw new ForbiddenError(`Only an admin can ${what}`);
@@ -80,7 +69,7 @@ export async function listPeople(em: EntityManager, actor: Actor, organisationId
   };
 }
 
-async function checkBuildings(em: EntityManager, organisationId: string, ids: readonly string[]): Promise<void> {
+export async function checkBuildings(em: EntityManager, organisationId: string, ids: readonly string[]): Promise<void> {
   if (!ids.length) return;
   const found = await em.count(Building, { where: { id: In([...new Set(ids)]), organisationId, deletedAt: IsNull() } });
   if (found !== new Set(ids).size) {
@@ -88,7 +77,7 @@ async function checkBuildings(em: EntityManager, organisationId: string, ids: re
   }
 }
 
-async function grant(em: EntityManager, userId: string, buildingIds: readonly string[]): Promise<void> {
+export async function grant(em: EntityManager, userId: string, buildingIds: readonly string[]): Promise<void> {
   for (const buildingId of new Set(buildingIds)) {
     await em.query(
       `INSERT INTO owner_grant (id, user_id, building_id) VALUES ($1, $2, $3)
@@ -96,137 +85,6 @@ async function grant(em: EntityManager, userId: string, buildingIds: readonly st
       [uuidv7(), userId, buildingId],
     );
   }
-}
-
-/** Invite by e-mail; an address that already has an account gets the membership at once. */
-export async function invite(
-  ds: DataSource,
-  mailer: Mailer,
-  actor: Actor,
-  organisationId: string,
-  body: z.output<typeof inviteBody>,
-): Promise<InviteResponse> {
-  requireOrgAdmin(actor, organisationId, 'invite people');
-  const email = body.email.toLowerCase();
-  const buildingIds = body.role === 'owner' ? body.buildingIds : [];
-  const organisation = await ds.manager.findOneByOrFail(Organisation, { id: organisationId });
-  const inviter = await ds.manager.findOneByOrFail(User, { id: actor.userId });
-  await checkBuildings(ds.manager, organisationId, buildingIds);
-
-  const existing = await ds.manager.findOneBy(User, { email });
-  if (existing) {
-    const membership = await ds.manager.findOneBy(Membership, { userId: existing.id, organisationId });
-    if (membership) {
-      throw new AppError(409, 'already_member', `${email} is already in ${organisation.name} as ${ROLE_LABELS[membership.role].toLowerCase()}.`, {
-        email: `already in this organisation as ${ROLE_LABELS[membership.role].toLowerCase()}`,
-      });
-    }
-    await ds.transaction(async (em) => {
-      await em.insert(Membership, { id: uuidv7(), userId: existing.id, organisationId, role: body.role });
-      await grant(em, existing.id, buildingIds);
-    });
-    const { text, html } = linkMessage(
-      [
-        `${inviter.name} added you to ${organisation.name} on Ampwright as ${ROLE_LABELS[body.role].toLowerCase()}.`,
-        'Sign in with your usual password to see it.',
-      ],
-      { label: 'Open Ampwright', url: mailer.link('/') },
-      'You already had an account, so no new password is needed.',
-    );
-    await mailer.send({ to: email, subject: `You now have access to ${organisation.name}`, text, html }).catch((e) => {
-      logger.warn({ err: e }, 'membership notice not sent');
-    });
-    return {
-      outcome: 'membership_added',
-      message: `${email} already had an account: they are now in ${organisation.name} as ${ROLE_LABELS[body.role].toLowerCase()}. We told them by e-mail.`,
-    };
-  }
-
-  const { token, hash } = newToken();
-  const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600 * 1000);
-  await ds.transaction(async (em) => {
-    // a new invitation replaces any earlier one to the same address
-    await em.query(
-      `UPDATE invitation SET expires_at = least(expires_at, now()) WHERE organisation_id = $1 AND email = $2 AND used_at IS NULL`,
-      [organisationId, email],
-    );
-    await em.insert(Invitation, {
-      id: uuidv7(),
-      organisationId,
-      email,
-      role: body.role,
-      buildingIds,
-      invitedBy: actor.userId,
-      tokenHash: hash,
-      expiresAt,
-    });
-  });
-  const { text, html } = linkMessage(
-    [
-      `${inviter.name} invited you to ${organisation.name} on Ampwright as ${ROLE_LABELS[body.role].toLowerCase()}.`,
-      'Open the link to choose your name and password.',
-    ],
-    { label: 'Accept the invitation', url: mailer.link(`/invitation/${token}`) },
-    `The link works once and expires in ${INVITATION_DAYS} days. If you did not expect it, ignore this e-mail.`,
-  );
-  await mailer.send({ to: email, subject: `Invitation to ${organisation.name} on Ampwright`, text, html });
-  return { outcome: 'invited', message: `Invitation sent to ${email}. The link works for ${INVITATION_DAYS} days.` };
-}
-
-export async function cancelInvitation(em: EntityManager, actor: Actor, organisationId: string, id: string) {
-  requireOrgAdmin(actor, organisationId, 'cancel invitations');
-  const [, count] = await em.query(
-    `UPDATE invitation SET expires_at = least(expires_at, now()) WHERE id = $1 AND organisation_id = $2 AND used_at IS NULL`,
-    [id, organisationId],
-  );
-  if (!count) throw new NotFoundError('Invitation');
-}
-
-/** The invitation behind a link: 404 unknown, 410 `used` / `expired` with a plain message. */
-async function liveInvitation(em: EntityManager, token: string, lock = false): Promise<Invitation> {
-  const invitation = await em.findOne(Invitation, {
-    where: { tokenHash: hashToken(token) },
-    lock: lock ? { mode: 'pessimistic_write' } : undefined,
-  });
-  if (!invitation) throw new AppError(404, 'not_found', 'This invitation link is not valid. Check that the whole link was copied.');
-  if (invitation.usedAt) throw new AppError(410, 'used', 'This invitation has already been used. Sign in with the password you chose.');
-  if (invitation.expiresAt.getTime() <= Date.now()) {
-    throw new AppError(410, 'expired', 'This invitation has expired. Ask your admin to send a new one.');
-  }
-  return invitation;
-}
-
-export async function viewInvitation(em: EntityManager, token: string): Promise<InvitationView> {
-  const invitation = await liveInvitation(em, token);
-  const organisation = await em.findOneByOrFail(Organisation, { id: invitation.organisationId });
-  return {
-    email: invitation.email,
-    organisationName: organisation.name,
-    role: invitation.role,
-    expiresAt: invitation.expiresAt.toISOString(),
-  };
-}
-
-/** Creates the account, its membership and grants; answers the new user's id. */
-export async function acceptInvitation(ds: DataSource, token: string, body: AcceptInvitationBody): Promise<string> {
-  const passwordHash = await bcrypt.hash(body.password, BCRYPT_ROUNDS);
-  return ds.transaction(async (em) => {
-    const invitation = await liveInvitation(em, token, true);
-    if (await em.findOneBy(User, { email: invitation.email })) {
-      throw new AppError(409, 'account_exists', 'An account with this e-mail already exists. Sign in, and ask your admin to add you.');
-    }
-    const userId = uuidv7();
-    await em.insert(User, { id: userId, email: invitation.email, name: body.name, passwordHash });
-    await em.insert(Membership, { id: uuidv7(), userId, organisationId: invitation.organisationId, role: invitation.role });
-    if (invitation.role === 'owner' && invitation.buildingIds.length) {
-      const live = await em.find(Building, {
-        where: { id: In(invitation.buildingIds), organisationId: invitation.organisationId, deletedAt: IsNull() },
-      });
-      await grant(em, userId, live.map((b) => b.id));
-    }
-    await em.update(Invitation, { id: invitation.id }, { usedAt: new Date() });
-    return userId;
-  });
 }
 
 /** Lock the organisation's memberships so "not the last admin" holds under concurrent changes. */

@@ -11,23 +11,11 @@ import {
   type ReadingFields,
 } from '../../shared/records';
 import type { ConflictEntity } from '../../shared/sync';
-import {
-  type Building,
-  Circuit,
-  CurveBand,
-  Deficiency,
-  DeficiencyEntry,
-  Inspection,
-  Organisation,
-  Panel,
-  Photo,
-  Reading,
-  TripEvent,
-  User,
-} from '../entities';
+import { Deficiency, DeficiencyEntry, Inspection, Organisation, Photo, Reading, TripEvent, User } from '../entities';
 import type { SyncColumns } from '../entities/sync-columns';
 import { AppError, ForbiddenError, NotFoundError, ValidationError } from '../http/errors';
 import { updateRows } from './bulk';
+import { assigneeOf, bandOf, circuitOf, type Ctx, frozen, openInspection, panelOf, photoParent } from './record-links';
 import {
   commitMerge,
   editedAfterDelete,
@@ -52,14 +40,6 @@ import {
 
 type RecordRow = SyncColumns & { buildingId: string };
 type Fields = Record<string, unknown>;
-
-/** What a kind's rules see of one write. */
-interface Ctx {
-  w: WriteContext;
-  building: Building;
-  role: Role;
-  version: number;
-}
 
 interface Spec<E extends RecordRow> {
   kind: ConflictEntity;
@@ -95,40 +75,6 @@ export async function organisationSettings(em: EntityManager, organisationId: st
   const org = await em.findOne(Organisation, { where: { id: organisationId } });
   const stored = org?.settings ?? {};
   return { ...DEFAULT_SETTINGS, ...stored, dueDays: { ...DEFAULT_SETTINGS.dueDays, ...stored.dueDays } };
-}
-
-// ---------- links ----------
-
-async function panelOf(c: Ctx, id: string, field = 'panelId'): Promise<Panel> {
-  const panel = await c.w.em.findOne(Panel, { where: { id, buildingId: c.building.id, ...live } });
-  if (!panel) throw new ValidationError({ [field]: 'no such panel in this building' });
-  return panel;
-}
-
-async function circuitOf(c: Ctx, id: string, panelId: string | null, field = 'circuitId'): Promise<Circuit> {
-  const circuit = await c.w.em.findOne(Circuit, { where: { id, buildingId: c.building.id, ...live } });
-  if (!circuit || (panelId && circuit.panelId !== panelId)) {
-    throw new ValidationError({ [field]: panelId ? 'no such circuit in this panel' : 'no such circuit in this building' });
-  }
-  return circuit;
-}
-
-async function bandOf(c: Ctx, id: string): Promise<void> {
-  const band = await c.w.em.findOne(CurveBand, {
-    where: { id, organisationId: c.building.organisationId, ...live },
-  });
-  if (!band) throw new ValidationError({ bandId: 'no such band in your library' });
-}
-
-function frozen(): AppError {
-  return new AppError(409, 'signed', 'This inspection is signed and frozen: record a new inspection for later changes');
-}
-
-async function openInspection(c: Ctx, id: string): Promise<Inspection> {
-  const inspection = await c.w.em.findOne(Inspection, { where: { id, buildingId: c.building.id, ...live } });
-  if (!inspection) throw new ValidationError({ inspectionId: 'no such inspection in this building' });
-  if (inspection.signedAt) throw frozen();
-  return inspection;
 }
 
 // ---------- the kinds ----------
@@ -242,6 +188,7 @@ const deficiencies: Spec<Deficiency> = {
       const found = await c.w.em.exists(Reading, { where: { id: f.readingId, buildingId: c.building.id } });
       if (!found) throw new ValidationError({ readingId: 'no such reading in this building' });
     }
+    if (f.assigneeId) await assigneeOf(c, f.assigneeId);
     const extra: Partial<Deficiency> = {
       raisedBy: c.w.actor.userId,
       raisedByName: await userName(c.w.em, c.w.actor.userId),
@@ -271,6 +218,7 @@ const deficiencies: Spec<Deficiency> = {
     if (check.forbidden) throw new ForbiddenError(check.forbidden);
     if (Object.keys(check.fields).length > 0) throw new ValidationError(check.fields);
     if (applied.includes('circuitId') && candidate.circuitId) await circuitOf(c, candidate.circuitId, candidate.panelId);
+    if (applied.includes('assigneeId') && candidate.assigneeId) await assigneeOf(c, candidate.assigneeId);
   },
   after: recordChange,
 };
@@ -293,16 +241,20 @@ const photos: Spec<Photo> = {
   writers: FIELD_WORKERS,
   async create(c, fields) {
     const { parentKind, parentId, purpose } = fields as { parentKind: string; parentId: string; purpose: string };
-    const parent = parentKind === 'reading' ? Reading : Deficiency;
-    const found = await c.w.em.exists(parent as EntityTarget<RecordRow>, {
-      where: { id: parentId, buildingId: c.building.id },
-    });
-    if (!found) throw new ValidationError({ parentId: `no such ${parentKind} in this building` });
+    await photoParent(c, parentKind, parentId);
     const fits = parentKind === 'reading' ? ['thermal', 'visible'] : ['finding', 'repair'];
     if (!fits.includes(purpose)) {
       throw new ValidationError({ purpose: `a ${parentKind} photo is ${fits.join(' or ')}` });
     }
     return { uploaded: false };
+  },
+  async checkChangeable(c, row) {
+    // the caption and the row itself freeze with a signed inspection's reading
+    if (row.parentKind === 'reading') {
+      const reading = await c.w.em.findOne(Reading, { where: { id: row.parentId } });
+      const inspection = reading && (await c.w.em.findOne(Inspection, { where: { id: reading.inspectionId } }));
+      if (inspection?.signedAt) throw frozen();
+    }
   },
 };
 

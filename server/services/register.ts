@@ -22,7 +22,7 @@ import {
 } from '../../shared/schemas';
 import type { Resolution } from '../../shared/sync';
 import { requireAdmin, requireScheduleEditor, roleForBuilding, type Actor } from '../auth/access';
-import { Building, Circuit, ConflictLog, Panel } from '../entities';
+import { Building, Circuit, ConflictLog, CurveBand, Panel } from '../entities';
 import type { SyncColumns } from '../entities/sync-columns';
 import { AppError, NotFoundError, ValidationError } from '../http/errors';
 import { selectRows, updateChanged, updateRows } from './bulk';
@@ -576,7 +576,8 @@ export function untombstone<T extends SyncColumns>(
 function organisationFor(actor: Actor, requested: string | undefined): string {
   const editable = [...actor.roles].filter(([, role]) => role === 'admin' || role === 'electrician');
   if (requested) {
-    if (!actor.roles.has(requested)) throw new ValidationError({ organisationId: 'not one of your organisations' });
+    // another organisation is not disclosed, as everywhere: 404 (tests/api/security-matrix.test.ts)
+    if (!actor.roles.has(requested)) throw new NotFoundError('Organisation');
     return requested;
   }
   if (editable.length === 1) return editable[0][0];
@@ -816,6 +817,22 @@ function circuitProblems(
 
 const ALL_CIRCUIT_FIELDS = new Set(['position', 'poles', 'status', 'ratingA', 'feedsPanelId']);
 
+/**
+ * A circuit's time-current band is a live band of its own building's organisation: another
+ * organisation's band would judge its trip tests and print in its report.
+ */
+function bandProblem(bandId: string | null, band: CurveBand | null | undefined, organisationId: string): Record<string, string> {
+  if (!bandId) return {};
+  const ok = band && !band.deletedAt && band.organisationId === organisationId;
+  return ok ? {} : { bandId: 'no such band in your library' };
+}
+
+async function bandsById(em: EntityManager, ids: (string | null | undefined)[]): Promise<Map<string, CurveBand>> {
+  const wanted = [...new Set(ids.filter((id): id is string => !!id))];
+  const bands = wanted.length ? await em.find(CurveBand, { where: { id: In(wanted) } }) : [];
+  return new Map(bands.map((b) => [b.id, b]));
+}
+
 async function writableCircuit(w: WriteContext, id: string) {
   const circuit = await w.em.findOne(Circuit, { where: { id } });
   if (!circuit) throw new NotFoundError('Circuit');
@@ -842,7 +859,11 @@ export async function createCircuit(w: WriteContext, panelId: string, body: Circ
   const { id: _id, ...fields } = body;
   const siblings = await w.em.find(Circuit, { where: { panelId, ...live } });
   const fed = await feedTarget(w.em, fields.feedsPanelId);
-  const problems = circuitProblems(panel, { id, ...fields }, ALL_CIRCUIT_FIELDS, siblings, fed);
+  const bands = await bandsById(w.em, [fields.bandId]);
+  const problems = {
+    ...circuitProblems(panel, { id, ...fields }, ALL_CIRCUIT_FIELDS, siblings, fed),
+    ...bandProblem(fields.bandId, bands.get(fields.bandId ?? ''), building.organisationId),
+  };
   if (Object.keys(problems).length > 0) throw new ValidationError(problems);
   const circuit = w.em.create(Circuit, { id, panelId, buildingId: panel.buildingId, fieldMeta: {} });
   stampNew(circuit, fields, w, version);
@@ -924,6 +945,9 @@ export async function planCircuitPatches(items: readonly CircuitPatchItem[]): Pr
     (feedIds.length ? await em.find(Panel, { where: { id: In(feedIds) } }) : []).map((p) => [p.id, p]),
   );
 
+  const bands = await bandsById(em, items.map((i) => i.patch.bandId));
+  const organisationOf = new Map(buildings.map((b) => [b.id, b.organisationId]));
+
   const outcomes: ItemOutcome<Circuit>[] = [];
   const dirty = new Map<Circuit, Set<string>>();
   const drafts: ConflictDraft[] = [];
@@ -952,6 +976,10 @@ export async function planCircuitPatches(items: readonly CircuitPatchItem[]): Pr
           siblings.get(circuit.panelId) ?? [],
           fedPanels.get(plan.candidate.feedsPanelId ?? ''),
         );
+        if (plan.applied.includes('bandId')) {
+          const bandId = plan.candidate.bandId;
+          Object.assign(problems, bandProblem(bandId, bands.get(bandId ?? ''), organisationOf.get(circuit.buildingId)!));
+        }
         if (Object.keys(problems).length > 0) throw new ValidationError(problems);
       }
       drafts.push(...commitMerge(circuit, plan, w, version, target));

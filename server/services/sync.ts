@@ -238,8 +238,10 @@ class Push {
 
   private async stored(ids: string[]): Promise<Map<string, StoredResult>> {
     const rows: { mutation_id: string; result: StoredResult | null }[] = await this.em.query(
-      'SELECT mutation_id, result FROM processed_mutation WHERE device_id = $1 AND mutation_id = ANY($2::uuid[])',
-      [this.deviceId, ids],
+      // only this account's records: another account's result for the same pair is not ours to read
+      `SELECT mutation_id, result FROM processed_mutation
+        WHERE user_id = $3 AND device_id = $1 AND mutation_id = ANY($2::uuid[])`,
+      [this.deviceId, ids, this.actor.userId],
     );
     const pending: StoredResult = { status: 'rejected', version: 0, reason: 'still being processed' };
     return new Map(rows.map((r) => [r.mutation_id, r.result ?? pending]));
@@ -250,8 +252,8 @@ class Push {
     await this.em.query(
       `UPDATE processed_mutation AS p SET result = v.result
          FROM jsonb_to_recordset($2::jsonb) AS v(mutation_id uuid, result jsonb)
-        WHERE p.device_id = $1 AND p.mutation_id = v.mutation_id`,
-      [this.deviceId, JSON.stringify(results.map((r) => ({ mutation_id: r.id, result: r.result })))],
+        WHERE p.user_id = $3 AND p.device_id = $1 AND p.mutation_id = v.mutation_id`,
+      [this.deviceId, JSON.stringify(results.map((r) => ({ mutation_id: r.id, result: r.result }))), this.actor.userId],
     );
   }
 

@@ -148,27 +148,64 @@ describe('invitations', () => {
     await owner.get(`/api/buildings/${ids.clinicId}`).expect(404);
   });
 
-  it('inviting an address that has an account adds the membership and says so', async () => {
+  it('an address that has an account gets the same answer as a new one, and an invitation it must accept', async () => {
     // another organisation with its own admin, and a person who already has an account here
     const secondOrg = uuidv7();
     await ctx.ds.query(`INSERT INTO organisation (id, name) VALUES ($1, 'Second organisation for access')`, [secondOrg]);
     const otherAdmin = await makeUser(unique(), secondOrg, 'admin');
     const existing = await makeUser(unique(), orgId, 'electrician');
-    const res = await otherAdmin.agent
-      .post(`/api/organisations/${secondOrg}/invitations`)
-      .send({ email: existing.email, role: 'inspector' })
-      .expect(201);
-    assert.equal(res.body.outcome, 'membership_added');
-    assert.match(res.body.message, /already had an account/);
-    assert.match((await mailTo(existing.email)).subject, /You now have access/);
-    const me = await existing.agent.get('/api/me').expect(200);
+    const fresh = unique();
+    const url = `/api/organisations/${secondOrg}/invitations`;
+    const forExisting = await otherAdmin.agent.post(url).send({ email: existing.email, role: 'inspector' });
+    const forFresh = await otherAdmin.agent.post(url).send({ email: fresh, role: 'inspector' });
+    // the same status, body shape and words (but for the address): nothing tells the admin which had an account
+    assert.equal(forExisting.status, 201);
+    assert.equal(forFresh.status, forExisting.status);
+    assert.deepEqual(Object.keys(forExisting.body).sort(), Object.keys(forFresh.body).sort());
+    assert.equal(forExisting.body.outcome, forFresh.body.outcome);
+    assert.equal(forExisting.body.message.replace(existing.email, 'X'), forFresh.body.message.replace(fresh, 'X'));
+    // nothing changed for the account until it accepts
+    const [before] = await ctx.ds.query(`SELECT count(*)::int AS n FROM membership WHERE user_id = $1 AND organisation_id = $2`, [existing.id, secondOrg]);
+    assert.equal(before.n, 0, 'no membership before the account accepts');
+    const mail = await mailTo(existing.email);
+    assert.match(mail.subject, /Invitation/);
+    const token = linkIn(mail, 'invitation');
+    // the link's page asks the existing account for its password, not for a new one
+    const view = await request(ctx.app).get(`/api/invitations/${token}`).expect(200);
+    assert.equal(view.body.account, 'existing');
+    const wrong = await request(ctx.app).post(`/api/invitations/${token}/accept`).send({ password: 'not-the-password' }).expect(400);
+    assert.ok(wrong.body.error.fields.password);
+    const agent = request.agent(ctx.app);
+    await agent.post(`/api/invitations/${token}/accept`).send({ password: 'made-in-test' }).expect(201);
+    const me = await agent.get('/api/me').expect(200);
+    assert.equal(me.body.user.id, existing.id, 'signed in as the existing account, not a new one');
     assert.ok(me.body.memberships.some((m: { organisationId: string; role: string }) => m.organisationId === secondOrg && m.role === 'inspector'));
-    // no account was created twice, no invitation row was made
-    assert.equal((await ctx.ds.query(`SELECT 1 FROM invitation WHERE email = $1`, [existing.email])).length, 0);
-    const dup = await otherAdmin.agent.post(`/api/organisations/${secondOrg}/invitations`).send({ email: existing.email, role: 'admin' }).expect(409);
+    assert.ok(me.body.memberships.some((m: { organisationId: string }) => m.organisationId === orgId), 'the first membership stays');
+    // the password did not change
+    await request(ctx.app).post('/api/auth/sign-in').send({ email: existing.email, password: 'made-in-test' }).expect(200);
+    await request(ctx.app).post(`/api/invitations/${token}/accept`).send({ password: 'made-in-test' }).expect(410);
+
+    const dup = await otherAdmin.agent.post(url).send({ email: existing.email, role: 'admin' }).expect(409);
     assert.equal(dup.body.error.code, 'already_member');
     // an admin of one organisation manages only that one
     await otherAdmin.agent.get(`/api/organisations/${orgId}/people`).expect(404);
+  });
+
+  it('an existing account signed in as itself accepts with one click; signed in as someone else it must give the password', async () => {
+    const thirdOrg = uuidv7();
+    await ctx.ds.query(`INSERT INTO organisation (id, name) VALUES ($1, 'Third organisation for access')`, [thirdOrg]);
+    const thirdAdmin = await makeUser(unique(), thirdOrg, 'admin');
+    const existing = await makeUser(unique(), orgId, 'inspector');
+    await thirdAdmin.agent.post(`/api/organisations/${thirdOrg}/invitations`).send({ email: existing.email, role: 'electrician' }).expect(201);
+    const token = linkIn(await mailTo(existing.email), 'invitation');
+    // someone else's session does not accept for the account
+    const other = await makeUser(unique(), orgId, 'inspector');
+    const refused = await other.agent.post(`/api/invitations/${token}/accept`).send({});
+    assert.equal(refused.status, 400, JSON.stringify(refused.body));
+    assert.ok(refused.body.error.fields.password);
+    await existing.agent.post(`/api/invitations/${token}/accept`).send({}).expect(201);
+    const me = await existing.agent.get('/api/me').expect(200);
+    assert.ok(me.body.memberships.some((m: { organisationId: string; role: string }) => m.organisationId === thirdOrg && m.role === 'electrician'));
   });
 });
 

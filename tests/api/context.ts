@@ -7,7 +7,7 @@ import type { DataSource } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
 import { formatHlc } from '../../shared/hlc';
 import { createApp, type App } from '../../server/app';
-import { readConfig } from '../../server/config';
+import { readConfig, type Config } from '../../server/config';
 import { makeDataSource } from '../../server/data-source';
 import { DEMO_PASSWORD } from '../../scripts/demo-data';
 
@@ -21,8 +21,8 @@ export interface TestContext {
   close(): Promise<void>;
 }
 
-export async function startApp(options: { signInLimit?: number } = {}): Promise<TestContext> {
-  const config = readConfig();
+export async function startApp(options: { signInLimit?: number; config?: Partial<Config> } = {}): Promise<TestContext> {
+  const config = { ...readConfig(), ...options.config };
   const ds = await makeDataSource(config.DATABASE_URL).initialize();
   const app = createApp({
     dataSource: ds,

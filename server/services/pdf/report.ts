@@ -176,7 +176,10 @@ export async function inspectionReportPdf(
   const bandIds = [...readings.map((r) => r.bandId), ...[...circuitById.values()].map((c) => c.bandId)].filter(
     (b): b is string => !!b,
   );
-  const bands = bandIds.length ? await em.find(CurveBand, { where: { id: In(bandIds) } }) : [];
+  // only the building's own organisation's bands: a link to another's is never printed or judged on
+  const bands = bandIds.length
+    ? await em.find(CurveBand, { where: { id: In(bandIds), organisationId: building.organisationId } })
+    : [];
   const bandById = new Map(bands.map((b) => [b.id, b]));
   const deficiencies = await em.find(Deficiency, {
     where: { inspectionId: inspection.id, ...live },
