@@ -194,3 +194,18 @@ describe('GET /api/panels/:id', () => {
     await electrician.get(`/api/panels/${made.body.panel.id}`).expect(404);
   });
 });
+
+describe('session touches', () => {
+  it('a read does not rewrite the session row every time (its rolling expiry is written at most every few minutes)', async () => {
+    const electrician = await ctx.signIn('electrician');
+    const expiry = async () =>
+      ((await ctx.ds.query(`SELECT max(expire) AS e FROM session WHERE sess::jsonb ->> 'userId' = (SELECT id::text FROM app_user WHERE email = 'electrician@ampwright.test')`))[0].e as Date).getTime();
+    await electrician.get('/api/me').expect(200);
+    const first = await expiry();
+    // the store keeps whole seconds
+    await new Promise((resolve) => setTimeout(resolve, 1100));
+    await electrician.get(`/api/panels/${ids.clinicLAId}`).expect(200);
+    await electrician.get('/api/me').expect(200);
+    assert.equal(await expiry(), first);
+  });
+});
