@@ -3,11 +3,13 @@ import { Pressable, StyleSheet } from 'react-native';
 import { useOnline, useOutbox } from '@/hooks/use-outbox';
 import { useWaitingPhotos } from '@/hooks/use-photos';
 import { useSyncReview } from '@/hooks/use-register';
+import { describePullProgress, usePullProgress } from '@/lib/pull-progress';
 import { Text } from './text';
 import { colours, MIN_TOUCH, radii, space } from './theme';
 
 /**
- * The compact status in every header: offline / on this device (N) / synced / needs review (N).
+ * The compact status in every header: offline / on this device (N) / synced / needs review (N),
+ * and "Loading Tower: 3 of 9 parts" while a big building's first sync arrives in pages.
  * Words and a mark, never colour alone. Tap for the Sync tab.
  */
 export function SyncStatus() {
@@ -19,13 +21,15 @@ export function SyncStatus() {
   // mounted in every header for the whole session: this also keeps the photo uploads going
   const photos = useWaitingPhotos().photos.length;
   const waiting = outbox.length + photos;
+  const loading = usePullProgress();
   const parts: string[] = [];
   if (!online) parts.push('○ offline');
+  if (online && loading.length > 0) parts.push(`↓ ${loading.map(describePullProgress).join(', ')}`);
   if (waiting > 0) parts.push(`${online ? '↑ ' : ''}on this device (${waiting})`);
   if (needsReview > 0) parts.push(`${parts.length ? '' : '! '}needs review (${needsReview})`);
   if (parts.length === 0) parts.push('✓ synced');
   const label = parts.join(' · ');
-  const tone = needsReview > 0 ? 'alert' : !online ? 'off' : waiting > 0 ? 'wait' : 'ok';
+  const tone = needsReview > 0 ? 'alert' : !online ? 'off' : waiting > 0 || loading.length > 0 ? 'wait' : 'ok';
   return (
     <Pressable
       accessibilityRole="button"

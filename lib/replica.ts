@@ -24,6 +24,11 @@ export interface BuildingCopy extends Partial<RecordCopy> {
   conflicts: Record<string, Conflict>;
   /** version of the last page applied: the next pull asks for what came after */
   cursor: number;
+  /**
+   * While a building arrives in several pages (a first sync of a big one), where the next page
+   * starts inside version cursor + 1; sent back with the cursor. Absent once it is complete.
+   */
+  resume?: string;
 }
 
 /** A record list of a copy (a copy persisted before the condition record existed has none). */
@@ -95,7 +100,7 @@ function applyPage(copy: BuildingCopy | undefined, page: BuildingPage): Building
     for (const [id, row] of Object.entries(rows)) if (row.deletedAt) delete rows[id];
     (records as unknown as Record<string, unknown>)[list] = rows;
   }
-  return { building, panels, circuits, conflicts, ...records, cursor: page.toVersion };
+  return { building, panels, circuits, conflicts, ...records, cursor: page.toVersion, ...(page.resume && { resume: page.resume }) };
 }
 
 /** Apply one pull response: pages per building, then buildings the user lost. */
@@ -112,6 +117,13 @@ export function applyPull(replica: Replica, response: PullResponse): Replica {
 
 export function cursorsOf(replica: Replica): Record<string, number> {
   return Object.fromEntries(Object.entries(replica.buildings).map(([id, b]) => [id, b.cursor]));
+}
+
+/** The resume tokens of buildings still arriving in pages (sent, even empty, so the server may cut versions). */
+export function resumesOf(replica: Replica): Record<string, string> {
+  return Object.fromEntries(
+    Object.entries(replica.buildings).flatMap(([id, b]) => (b.resume ? [[id, b.resume] as const] : [])),
+  );
 }
 
 function withCopy(replica: Replica, buildingId: string, edit: (copy: BuildingCopy) => BuildingCopy): Replica {

@@ -6,11 +6,13 @@ import type { Mutation as QueryMutation, QueryClient } from '@tanstack/react-que
 import { SCHEMA_VERSION, type Mutation, type MutationResult, type PullResponse, type PushResponse } from '@/shared/sync';
 import { api, ApiError, describeError, NetworkError } from './api';
 import { deviceId, observe } from './device';
+import { estimateParts, setPullProgress, type BuildingPullProgress, type PagesSoFar } from './pull-progress';
 import { clearCopyProblem } from './storage-health';
 import {
   applyMutation,
   applyPull,
   cursorsOf,
+  resumesOf,
   describeMutation,
   EMPTY_REPLICA,
   EMPTY_SYNC_LOG,
@@ -22,7 +24,6 @@ import {
 export const OUTBOX_KEY = ['sync'] as const;
 export const REPLICA_KEY = ['replica'] as const;
 export const SYNC_LOG_KEY = ['sync-log'] as const;
-const MAX_PULL_PAGES = 100;
 
 /** Worth trying again later: no answer, the server busy or failing, or the session to renew. */
 export function isTransient(error: unknown): boolean {
@@ -59,18 +60,47 @@ export function rebaseOnOutbox(queryClient: QueryClient, replica: Replica, userI
 async function pullAll(queryClient: QueryClient, userId: string): Promise<Replica> {
   const start = queryClient.getQueryData<Replica>(REPLICA_KEY) ?? EMPTY_REPLICA;
   let pulled = start;
-  for (let page = 0; page < MAX_PULL_PAGES; page++) {
-    const response = await api.post<PullResponse>('/sync/pull', {
-      deviceId: deviceId(),
-      schemaVersion: SCHEMA_VERSION,
-      cursors: cursorsOf(pulled),
-    });
-    observe(response.serverHlc);
-    pulled = applyPull(pulled, response);
-    if (!response.buildings.some((b) => b.hasMore)) break;
+  // pages per building in this pull, for "Loading Tower: 3 of 9 parts"
+  const counts = new Map<string, PagesSoFar>();
+  try {
+    for (;;) {
+      const request = { cursors: cursorsOf(pulled), resume: resumesOf(pulled) };
+      const response = await api.post<PullResponse>('/sync/pull', {
+        deviceId: deviceId(),
+        schemaVersion: SCHEMA_VERSION,
+        ...request,
+      });
+      observe(response.serverHlc);
+      pulled = applyPull(pulled, response);
+      if (!response.buildings.some((b) => b.hasMore)) break;
+      // a server that answers "more" without moving any cursor would loop forever: stop, the next
+      // refetch tries again
+      if (JSON.stringify(request) === JSON.stringify({ cursors: cursorsOf(pulled), resume: resumesOf(pulled) })) break;
+      showProgress(counts, pulled, response);
+      // keep what has arrived: the screens fill in, and a reload or a lost signal resumes from here
+      queryClient.setQueryData<Replica>(REPLICA_KEY, rebaseOnOutbox(queryClient, pulled, userId));
+    }
+  } finally {
+    if (counts.size > 0) setPullProgress([]);
   }
   clearCopyProblem();
   return rebaseOnOutbox(queryClient, { buildings: pulled.buildings, lastSyncAt: new Date().toISOString() }, userId);
+}
+
+/** Count the pages of buildings that arrive in several, and publish the estimate. */
+function showProgress(counts: Map<string, PagesSoFar>, replica: Replica, response: PullResponse): void {
+  const progress: BuildingPullProgress[] = [];
+  for (const page of response.buildings) {
+    const rows = Object.values(page.upserts).reduce((n, list) => n + list.length, 0);
+    if (rows === 0 && !counts.has(page.buildingId)) continue;
+    const soFar = counts.get(page.buildingId) ?? { pages: 0, rows: 0 };
+    const next = { pages: soFar.pages + (rows > 0 ? 1 : 0), rows: soFar.rows + rows };
+    counts.set(page.buildingId, next);
+    if (!page.hasMore || page.remaining === undefined) continue;
+    const name = replica.buildings[page.buildingId]?.building.name ?? 'building';
+    progress.push({ buildingId: page.buildingId, name, part: next.pages, parts: estimateParts(next, page.remaining) });
+  }
+  setPullProgress(progress);
 }
 
 function updateReplica(queryClient: QueryClient, edit: (r: Replica) => Replica) {

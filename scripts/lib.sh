@@ -214,7 +214,7 @@ mail_down() { service_stop "$(mail_dir "$1")" "$MAIL_SCRIPT" "the local mail ser
 
 # Rebuild the web bundle only when a client source changed since the last build.
 web_source_hash() {
-  find app components hooks lib shared assets fonts public app.json tsconfig.json package-lock.json \
+  find app components hooks lib shared assets fonts public app.json metro.config.js tsconfig.json package-lock.json \
     -type f -print0 2>/dev/null | sort -z | xargs -0 sha1sum | sha1sum | cut -c1-40
 }
 ensure_web_build() {

@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import express, { type Express } from 'express';
+import compression from 'compression';
+import express, { type Express, type Response } from 'express';
 import helmet from 'helmet';
 import pg from 'pg';
 import type { DataSource } from 'typeorm';
@@ -25,6 +26,8 @@ export interface AppDeps {
   config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY' | 'PUBLIC_URL' | 'ALLOWED_ORIGINS'> & PhotoStoreConfig & MailConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
+  /** gzip/brotli responses when the client accepts them (default true; the bench turns it off for its baseline) */
+  compress?: boolean;
 }
 
 export interface App extends Express {
@@ -32,7 +35,20 @@ export interface App extends Express {
   closeResources(): Promise<void>;
 }
 
-export function createApp({ dataSource, config, webDir }: AppDeps): App {
+/** A file whose name carries a content hash (Metro's bundles, exported assets) never changes. */
+const HASHED = /(^|\/)_expo\/static\/|\.[0-9a-f]{32}(@\dx)?\.[a-z0-9]+$/i;
+/** Must be asked for again every time: they name the hashed files of the current build. */
+const ALWAYS_REVALIDATE = new Set(['index.html', 'sw.js']);
+
+/** Cache-Control for a file of the web build, by its path relative to webDir. */
+export function staticCacheControl(relativePath: string): string {
+  const file = relativePath.split(path.sep).join('/');
+  if (ALWAYS_REVALIDATE.has(file)) return 'no-cache';
+  if (HASHED.test(file)) return 'public, max-age=31536000, immutable';
+  return 'public, max-age=3600';
+}
+
+export function createApp({ dataSource, config, webDir, compress = true }: AppDeps): App {
   const app = express() as App;
   app.disable('x-powered-by');
   if (config.TRUST_PROXY === '1') app.set('trust proxy', 1);
@@ -48,6 +64,9 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
     }),
   );
   app.use(requestLog);
+  // a phone on a weak signal: JSON and the JS bundle shrink 6–15× (brotli when the client offers
+  // it, else gzip); images and PDFs are left alone by the middleware's compressible-type check
+  if (compress) app.use(compression());
   // before any session or body is read: a cross-site write, or a body that is not JSON (photos
   // are multipart), is refused here (server/http/same-origin.ts)
   app.use('/api', sameOriginOnly(config), jsonBodiesOnly(/^\/photos\//));
@@ -82,7 +101,14 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   });
 
   if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
-    app.use(express.static(webDir, { index: false, maxAge: '1h' }));
+    app.use(
+      express.static(webDir, {
+        index: false,
+        setHeaders: (res: Response, file: string) => {
+          res.setHeader('Cache-Control', staticCacheControl(path.relative(webDir, file)));
+        },
+      }),
+    );
     // client-side routes: any other GET without a file extension gets the single-page app
     app.get(/^\/(?!api\/).*$/, (req, res, next) => {
       if (path.extname(req.path)) return next();

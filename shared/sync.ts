@@ -47,8 +47,20 @@ export const SCHEMA_VERSION = 1;
 /** Most mutations one push may carry; more is 413 (the client splits its queue). */
 export const MAX_PUSH_MUTATIONS = 500;
 
-/** Most rows one pull response carries, except that one version is never split across pages. */
-export const PULL_PAGE_ROWS = 5000;
+/**
+ * Most rows one pull response carries to a device that sends `resume` (versions are then cut
+ * between pages wherever the page is full).
+ */
+export const PULL_PAGE_ROWS = 2000;
+
+/** The same for an older device (no `resume`): whole versions only, one version sent whole however large. */
+export const PULL_PAGE_ROWS_WHOLE_VERSIONS = 5000;
+
+/**
+ * Most bytes of row JSON one pull response carries (one row more when a single row is larger), so
+ * a page stays under about 1 MB on a phone: a 400-panel building arrives in parts, not in one go.
+ */
+export const PULL_PAGE_BYTES = 768 * 1024;
 
 export const MUTATION_NAMES = [
   'building.create',
@@ -218,6 +230,11 @@ export const pullBody = z.object({
   deviceId: deviceIdSchema,
   schemaVersion: z.number().int(),
   cursors: z.record(idSchema, z.number().int().min(0)).default({}),
+  /**
+   * Per building, the `resume` of the last page applied while it said `hasMore`. Sending the field
+   * at all (even `{}`) says the device can take a version cut between pages.
+   */
+  resume: z.record(idSchema, z.string().max(100)).optional(),
 });
 export type PullBody = z.infer<typeof pullBody>;
 
@@ -269,8 +286,15 @@ export const buildingPageSchema = z.object({
   reset: z.boolean(),
   /** store as the new cursor once this page is applied */
   toVersion: z.number(),
-  /** more pages follow: pull again right away with the new cursor */
+  /** more pages follow: pull again right away with the new cursor (and `resume`) */
   hasMore: z.boolean(),
+  /**
+   * Where the next page starts inside version toVersion + 1: send it back in `resume` with the
+   * cursor. Absent once the building is complete.
+   */
+  resume: z.string().optional(),
+  /** rows of this building still to come after this page (for progress; absent when unknown) */
+  remaining: z.number().int().min(0).optional(),
   /** the building row when it changed (a deleted building comes with deletedAt set); else null */
   building: buildingSchema.nullable(),
   upserts: z.object({

@@ -1,6 +1,5 @@
 import type { EntityManager } from 'typeorm';
 import type { Role } from '../../shared/domain';
-import { Membership, OwnerGrant } from '../entities';
 import { ForbiddenError } from '../http/errors';
 
 /** Who is asking, with every organisation role and owner grant they hold. */
@@ -10,15 +9,20 @@ export interface Actor {
   grants: Set<string>;
 }
 
+/**
+ * Loaded on every signed-in request, so one plain statement: roles (role set) and owner grants
+ * (role null) as rows of one union.
+ */
 export async function loadActor(em: EntityManager, userId: string): Promise<Actor> {
-  const [memberships, grants] = await Promise.all([
-    em.find(Membership, { where: { userId } }),
-    em.find(OwnerGrant, { where: { userId } }),
-  ]);
+  const rows: { id: string; role: Role | null }[] = await em.query(
+    `SELECT organisation_id AS id, role FROM membership WHERE user_id = $1
+     UNION ALL SELECT building_id AS id, NULL AS role FROM owner_grant WHERE user_id = $1`,
+    [userId],
+  );
   return {
     userId,
-    roles: new Map(memberships.map((m) => [m.organisationId, m.role])),
-    grants: new Set(grants.map((g) => g.buildingId)),
+    roles: new Map(rows.filter((r) => r.role !== null).map((r) => [r.id, r.role as Role])),
+    grants: new Set(rows.filter((r) => r.role === null).map((r) => r.id)),
   };
 }
 

@@ -19,11 +19,34 @@ declare module 'express-serve-static-core' {
 
 const THIRTY_DAYS_MS = 30 * 24 * 3600 * 1000;
 
+/**
+ * How long a session's stored expiry may lag its rolling cookie. express-session touches the
+ * store on every request that does not change the session; a write per read (a panel GET, a pull)
+ * for an expiry 30 days out buys nothing, so each process writes it at most this often per session.
+ */
+export const TOUCH_EVERY_MS = 10 * 60 * 1000;
+const TOUCHES_KEPT = 10_000;
+
 /** Sessions live in PostgreSQL (the `session` table from the migrations), so any process can serve. */
 export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler {
   const PgStore = connectPgSimple(session);
+  class ThrottledStore extends PgStore {
+    private readonly touched = new Map<string, number>();
+    override touch(sid: string, sess: session.SessionData, callback?: () => void): void {
+      const now = Date.now();
+      const last = this.touched.get(sid);
+      if (last !== undefined && now - last < TOUCH_EVERY_MS) {
+        callback?.();
+        return;
+      }
+      // a bounded memo: forgetting only means one more write
+      if (this.touched.size >= TOUCHES_KEPT) this.touched.clear();
+      this.touched.set(sid, now);
+      super.touch(sid, sess, callback);
+    }
+  }
   return session({
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false }),
+    store: new ThrottledStore({ pool, tableName: 'session', createTableIfMissing: false }),
     name: 'ampwright.sid',
     secret,
     resave: false,

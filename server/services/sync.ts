@@ -1,43 +1,24 @@
-import { In, type DataSource, type EntityManager, type EntityTarget } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { formatHlc, parseHlc } from '../../shared/hlc';
 import { fieldErrors, type CircuitPatchBody } from '../../shared/schemas';
 import {
   MUTATION_FIELDS,
-  PULL_PAGE_ROWS,
   SCHEMA_VERSION,
   mutationSchema,
-  type BuildingPage,
   type Mutation,
   type MutationResult,
   type PullBody,
   type PullResponse,
   type PushResponse,
-  RECORD_LISTS,
-  type RecordList,
   type Resolution,
 } from '../../shared/sync';
-import { roleForBuilding, type Actor } from '../auth/access';
-import {
-  Building,
-  Circuit,
-  ConflictLog,
-  Deficiency,
-  DeficiencyEntry,
-  Inspection,
-  Panel,
-  Photo,
-  Reading,
-  TripEvent,
-  User,
-} from '../entities';
-import type { SyncColumns } from '../entities/sync-columns';
+import type { Actor } from '../auth/access';
 import { AppError } from '../http/errors';
 import { logger } from '../logger';
 import { observeStamp, serverStamp } from './clock';
-import { selectRows } from './bulk';
+import { pullPages } from './pull';
 import { applyRecordMutation } from './records';
 import * as register from './register';
-import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from './serialise';
 
 /**
  * The server side of offline sync (SYNC.md).
@@ -64,9 +45,7 @@ import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from './ser
  * rolled back and planned again, and on a database error it is replayed one mutation per
  * savepoint.
  *
- * Pull: one REPEATABLE READ transaction, so a building's version and its rows come from one
- * snapshot; a push holds its buildings' row locks until it commits, so the snapshot can only
- * see whole pushes, in version order, and a cursor never passes a row that commits later.
+ * Pull: server/services/pull.ts (one REPEATABLE READ transaction, pages cut by row).
  */
 
 /** A stamp further ahead of the server's wall clock than this is re-stamped (SYNC.md). */
@@ -491,179 +470,8 @@ export function push(ds: DataSource, actor: Actor, input: PushInput): Promise<Pu
 
 // ---------- pull ----------
 
-const emptyPage = (buildingId: string, toVersion: number, hasMore: boolean): BuildingPage => ({
-  buildingId,
-  reset: false,
-  toVersion,
-  hasMore,
-  building: null,
-  upserts: { panels: [], circuits: [], conflicts: [], ...emptyLists() },
-  tombstones: { panels: [], circuits: [], ...emptyLists() },
-});
-
-/** The condition record's tables, by the name of their list in a page. */
-const RECORD_TABLES = {
-  inspections: { table: 'inspection', entity: Inspection },
-  readings: { table: 'reading', entity: Reading },
-  deficiencies: { table: 'deficiency', entity: Deficiency },
-  entries: { table: 'deficiency_entry', entity: DeficiencyEntry },
-  trips: { table: 'trip_event', entity: TripEvent },
-  photos: { table: 'photo', entity: Photo },
-} as const satisfies Record<RecordList, { table: string; entity: EntityTarget<SyncColumns> }>;
-
-function emptyLists(): Record<RecordList, never[]> {
-  return Object.fromEntries(RECORD_LISTS.map((l) => [l, []])) as unknown as Record<RecordList, never[]>;
-}
-
-type PulledTable = 'panel' | 'circuit' | 'conflict_log' | (typeof RECORD_TABLES)[RecordList]['table'];
-const PULLED_TABLES: readonly PulledTable[] = [
-  'panel',
-  'circuit',
-  'conflict_log',
-  ...RECORD_LISTS.map((l) => RECORD_TABLES[l].table),
-];
-
-/**
- * Rows of one page ($1 building, $2 cursor, $3 last version): past the cursor, up to a version; a
- * snapshot holds live rows only.
- */
-function rangeWhere(table: PulledTable, snapshot: boolean): string {
-  const live = snapshot ? ' AND deleted_at IS NULL' : '';
-  // a snapshot leaves resolved conflicts out: they no longer need review
-  const open = snapshot && table === 'conflict_log' ? ' AND resolution IS NULL' : '';
-  return `building_id = $1 AND version > $2 AND version <= $3${live}${open}`;
-}
-
-function rangeSql(table: PulledTable, snapshot: boolean): string {
-  return `FROM ${table} WHERE ${rangeWhere(table, snapshot)}`;
-}
-
-/**
- * The last version of a page holding at most `budget` rows past `since`, never splitting a version
- * (a single version larger than the budget is sent whole); null when everything fits.
- */
-async function pageEnd(
-  em: EntityManager,
-  buildingId: string,
-  since: number,
-  upTo: number,
-  snapshot: boolean,
-  budget: number,
-): Promise<number | null> {
-  const tables = PULLED_TABLES;
-  const [{ n }]: { n: string }[] = await em.query(
-    `SELECT (${tables.map((t) => `(SELECT count(*) ${rangeSql(t, snapshot)})`).join(' + ')}) AS n`,
-    [buildingId, since, upTo],
-  );
-  if (Number(n) <= budget) return null;
-  const histogram: { version: string; n: string }[] = await em.query(
-    `SELECT version, sum(n) AS n FROM (
-       ${tables.map((t) => `SELECT version, count(*) AS n ${rangeSql(t, snapshot)} GROUP BY version`).join('\n UNION ALL ')}
-     ) AS per_table GROUP BY version ORDER BY version`,
-    [buildingId, since, upTo],
-  );
-  let total = 0;
-  let end: number | null = null;
-  for (const row of histogram) {
-    if (end !== null && total + Number(row.n) > budget) return end;
-    total += Number(row.n);
-    end = Number(row.version);
-  }
-  return null;
-}
-
-async function userNames(em: EntityManager, conflicts: ConflictLog[]): Promise<Map<string, string>> {
-  const ids = [...new Set(conflicts.flatMap((c) => [c.winnerUser, c.loserUser]).filter((u): u is string => !!u))];
-  if (ids.length === 0) return new Map();
-  const users = await em.find(User, { where: { id: In(ids) } });
-  return new Map(users.map((u) => [u.id, u.name]));
-}
-
-async function buildingPage(
-  em: EntityManager,
-  actor: Actor,
-  building: Building,
-  cursor: number,
-  budget: number,
-): Promise<{ page: BuildingPage; rows: number }> {
-  const version = Number(building.version);
-  const reset = cursor > version;
-  const since = reset ? 0 : cursor;
-  if (since === version) return { page: emptyPage(building.id, version, false), rows: 0 };
-  const snapshot = since === 0;
-  const end = await pageEnd(em, building.id, since, version, snapshot, budget);
-  const upTo = end ?? version;
-  // field_meta stays on the server: it is larger than the rest of a circuit, and no device needs it
-  const read = <T extends SyncColumns>(entity: EntityTarget<T>, table: PulledTable) =>
-    selectRows(em, entity, rangeWhere(table, snapshot), [building.id, since, upTo], { without: ['fieldMeta'] });
-  const panels = await read(Panel, 'panel');
-  const circuits = await read(Circuit, 'circuit');
-  const conflicts = await read(ConflictLog, 'conflict_log');
-  const records: Record<RecordList, Record<string, unknown>[]> = emptyLists();
-  const recordTombstones: Record<RecordList, string[]> = emptyLists();
-  let recordRows = 0;
-  for (const list of RECORD_LISTS) {
-    const { table, entity } = RECORD_TABLES[list];
-    const rows = await read(entity, table);
-    recordRows += rows.length;
-    records[list] = rows.filter((r) => !r.deletedAt).map(recordDto);
-    recordTombstones[list] = rows.filter((r) => r.deletedAt).map((r) => r.id);
-  }
-  const counts = await register.panelCounts(em, [building.id]);
-  const names = await userNames(em, conflicts);
-  const role = roleForBuilding(actor, building)!;
-  const page: BuildingPage = {
-    buildingId: building.id,
-    reset,
-    toVersion: upTo,
-    hasMore: end !== null,
-    building: buildingDto(building, role, counts.get(building.id) ?? 0),
-    upserts: {
-      panels: panels.filter((p) => !p.deletedAt).map(panelDto),
-      circuits: circuits.filter((c) => !c.deletedAt).map(circuitDto),
-      conflicts: conflicts.map((c) => conflictDto(c, names)),
-      ...(records as unknown as Pick<BuildingPage['upserts'], RecordList>),
-    },
-    tombstones: {
-      panels: panels.filter((p) => p.deletedAt).map((p) => p.id),
-      circuits: circuits.filter((c) => c.deletedAt).map((c) => c.id),
-      ...recordTombstones,
-    },
-  };
-  return { page, rows: panels.length + circuits.length + conflicts.length + recordRows };
-}
-
-/**
- * `POST /api/sync/pull`: for each building the user may see, the changes past the device's cursor
- * (a full snapshot without one, or with a cursor the server never issued), at most PULL_PAGE_ROWS
- * rows per response, cut at version boundaries; and the buildings the device must forget.
- */
+/** `POST /api/sync/pull`: pages of changes per building, cut by row (server/services/pull.ts). */
 export async function pull(ds: DataSource, actor: Actor, body: PullBody): Promise<PullResponse> {
   requireSchemaVersion(body.schemaVersion);
-  return ds.transaction('REPEATABLE READ', async (em) => {
-    const orgIds = [...actor.roles.keys()];
-    const all = orgIds.length
-      ? await em.find(Building, { where: { organisationId: In(orgIds) }, order: { id: 'ASC' } })
-      : [];
-    // a deleted building is news only to a device that has it
-    const visible = all.filter(
-      (b) => roleForBuilding(actor, b) !== null && (!b.deletedAt || (body.cursors[b.id] ?? 0) > 0),
-    );
-    const visibleIds = new Set(all.filter((b) => roleForBuilding(actor, b) !== null).map((b) => b.id));
-    const revoked = Object.keys(body.cursors).filter((id) => !visibleIds.has(id));
-    const buildings: BuildingPage[] = [];
-    let budget = PULL_PAGE_ROWS;
-    for (const building of visible) {
-      const cursor = body.cursors[building.id] ?? 0;
-      if (budget <= 0) {
-        // the response is full: the device pulls again at once (hasMore) with this cursor unchanged
-        buildings.push(emptyPage(building.id, cursor, true));
-        continue;
-      }
-      const { page, rows } = await buildingPage(em, actor, building, cursor, budget);
-      buildings.push(page);
-      budget -= rows;
-    }
-    return { serverHlc: serverStamp(), revoked, buildings };
-  });
+  return pullPages(ds, actor, body);
 }

@@ -555,7 +555,7 @@ describe('pull', () => {
     assert.ok(!snapshot.upserts.conflicts.some((c) => c.id === conflictId));
   });
 
-  it('pages at version boundaries: never more than 5 000 rows unless one version is bigger', async () => {
+  it('a device that sends no resume gets pages at version boundaries: never more than 5 000 rows unless one version is bigger', async () => {
     // a user of their own organisation, so this big building stays out of the other tests' pulls
     const organisationId = uuidv7();
     const userId = uuidv7();

@@ -1,7 +1,7 @@
 /** The device's copy: pulls and queued changes laid over it (lib/replica.ts). */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { applyMutation, applyPull, cursorsOf, EMPTY_REPLICA, EMPTY_SYNC_LOG, recordResult, type Replica } from '../../lib/replica';
+import { applyMutation, applyPull, cursorsOf, EMPTY_REPLICA, EMPTY_SYNC_LOG, recordResult, resumesOf, type Replica } from '../../lib/replica';
 import type { Building, Circuit, Panel } from '../../shared/schemas';
 import type { BuildingPage, Mutation } from '../../shared/sync';
 
@@ -31,6 +31,26 @@ const snapshot = pull(EMPTY_REPLICA, page({
 }));
 
 describe('applyPull', () => {
+  it('a building in parts keeps the resume token until its last part, and the cursor the completed version', () => {
+    const first = pull(EMPTY_REPLICA, page({
+      building, toVersion: 0, hasMore: true, resume: '1.1.c1.1', remaining: 1,
+      upserts: { panels: [panel], circuits: [circuit('c1', 1, 'Exam 1')], conflicts: [] },
+    }));
+    assert.deepEqual(cursorsOf(first), { b1: 0 });
+    assert.deepEqual(resumesOf(first), { b1: '1.1.c1.1' });
+    const last = pull(first, page({ toVersion: 1, remaining: 0, upserts: { circuits: [circuit('c2', 2, 'Exam 2')] } }));
+    assert.deepEqual(Object.keys(last.buildings.b1.circuits).sort(), ['c1', 'c2']);
+    assert.deepEqual(cursorsOf(last), { b1: 1 });
+    assert.deepEqual(resumesOf(last), {});
+  });
+
+  it('a page held back by a full response keeps the token it echoes', () => {
+    const first = pull(EMPTY_REPLICA, page({ building, toVersion: 0, hasMore: true, resume: '1.1.c1.1', upserts: { panels: [panel] } }));
+    const held = pull(first, page({ toVersion: 0, hasMore: true, resume: '1.1.c1.1' }));
+    assert.deepEqual(resumesOf(held), { b1: '1.1.c1.1' });
+    assert.equal(Object.keys(held.buildings.b1.panels).length, 1);
+  });
+
   it('a snapshot fills the copy and sets the cursor', () => {
     assert.equal(Object.keys(snapshot.buildings.b1.circuits).length, 2);
     assert.deepEqual(cursorsOf(snapshot), { b1: 3 });
