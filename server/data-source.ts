@@ -6,13 +6,14 @@ import { Sync1764900000000 } from './migrations/1764900000000-sync';
 import { SyncLeanRecord1764990000000 } from './migrations/1764990000000-sync-lean-record';
 import { ConditionRecord1765200000000 } from './migrations/1765200000000-condition-record';
 import { Access1765300000000 } from './migrations/1765300000000-access';
+import { Judgements1765413000000 } from './migrations/1765413000000-judgements';
 
 export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
   return new DataSource({
     type: 'postgres',
     url,
     entities,
-    migrations: [Register1764641000000, Sync1764900000000, SyncLeanRecord1764990000000, ConditionRecord1765200000000, Access1765300000000],
+    migrations: [Register1764641000000, Sync1764900000000, SyncLeanRecord1764990000000, ConditionRecord1765200000000, Access1765300000000, Judgements1765413000000],
     synchronize: false,
     logging: false,
     extra: { max: 10 },

@@ -987,6 +987,7 @@ const FREE_CIRCUIT_FIELDS: ReadonlySet<string> = new Set([
   'conductorSize',
   'conductorMaterial',
   'insulationTempC',
+  'terminationTempC',
   'lengthFt',
   'handleLock',
   'notes',
