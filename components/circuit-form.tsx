@@ -59,6 +59,7 @@ export const NEW_CIRCUIT: CircuitFields = {
   conductorSize: null,
   conductorMaterial: 'Cu',
   insulationTempC: 75,
+  terminationTempC: null,
   lengthFt: null,
   status: 'in-use',
   feedsPanelId: null,
@@ -79,6 +80,7 @@ interface Draft {
   conductorSize: ConductorSize | null;
   conductorMaterial: ConductorMaterial | null;
   insulationTempC: InsulationTempC | null;
+  terminationTempC: InsulationTempC | null;
   lengthFt: string;
   status: CircuitStatus;
   handleLock: boolean;
@@ -99,6 +101,8 @@ function toDraft(c: CircuitFields): Draft {
     conductorSize: c.conductorSize,
     conductorMaterial: c.conductorMaterial,
     insulationTempC: c.insulationTempC,
+    // a copy persisted before the field existed has none
+    terminationTempC: c.terminationTempC ?? null,
     lengthFt: textOf(c.lengthFt),
     status: c.status,
     handleLock: c.handleLock,
@@ -121,6 +125,7 @@ function fromDraft(d: Draft, base: CircuitFields): CircuitFields {
     conductorSize: d.conductorSize,
     conductorMaterial: d.conductorMaterial,
     insulationTempC: d.insulationTempC,
+    terminationTempC: d.terminationTempC,
     lengthFt: numberOrNull(d.lengthFt),
     status: d.status,
     handleLock: d.handleLock,
@@ -177,7 +182,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
   };
 
   const preview = fromDraft(draft, initial);
-  const warnings = Number.isFinite(preview.position) ? circuitWarnings(preview, { system: panel.system }) : [];
+  const warnings = Number.isFinite(preview.position) ? previewWarnings(preview, panel) : [];
   const positionNumber = numberOrNull(draft.position);
   const phases =
     positionNumber && Number.isInteger(positionNumber)
@@ -302,6 +307,16 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
             value={draft.insulationTempC}
             onChange={set('insulationTempC')}
           />
+          <ChoiceField
+            label="Termination rating"
+            choices={[
+              { value: null, label: `As the panel (${panelTermination(panel)})` },
+              ...[60, 75, 90].map((t) => ({ value: t as InsulationTempC | null, label: `${t} °C` })),
+            ]}
+            value={draft.terminationTempC}
+            onChange={set('terminationTempC')}
+            hint="What this breaker’s terminals are listed and marked for, where it differs from the panel (NEC 110.14(C))."
+          />
           <ToggleField label="Handle lock fitted" value={draft.handleLock} onChange={set('handleLock')} />
           {numberOrNull(draft.ratingA) ? (
             <BandPicker
@@ -340,7 +355,7 @@ function CircuitWarningsBox({ warnings }: { warnings: CircuitWarning[] }) {
 export function CircuitDetails({ circuit, panel }: { circuit: Circuit; panel: Panel }) {
   return (
     <View style={styles.form}>
-      <CircuitWarningsBox warnings={circuitWarnings(circuit, { system: panel.system })} />
+      <CircuitWarningsBox warnings={circuitWarnings(circuit, panel)} />
       <View>
       <ReadOnlyField label="Directory" value={directoryText(circuit)} />
       <ReadOnlyField label="Position" value={`${circuit.position}${circuit.poles > 1 ? ` (${circuit.poles} poles)` : ''}`} />
@@ -353,6 +368,24 @@ export function CircuitDetails({ circuit, panel }: { circuit: Circuit; panel: Pa
       </View>
     </View>
   );
+}
+
+/** The panel's termination rating in words. */
+export function panelTermination(panel: Panel): string {
+  return panel.terminationTempC ? `${panel.terminationTempC} °C` : 'not recorded: 60 °C up to 100 A';
+}
+
+/**
+ * Warnings for the circuit as typed: a number the checks refuse (a negative load while typing) shows
+ * no warnings here; the field itself is named at the save.
+ */
+function previewWarnings(circuit: CircuitFields, panel: Panel): CircuitWarning[] {
+  try {
+    return circuitWarnings(circuit, panel);
+  } catch (error) {
+    if (error instanceof RangeError) return [];
+    throw error;
+  }
 }
 
 const styles = StyleSheet.create({

@@ -1,5 +1,5 @@
 import { StyleSheet, View } from 'react-native';
-import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type PanelKind, type PanelSystem } from '@/shared/domain';
+import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type InsulationTempC, type PanelKind, type PanelSystem } from '@/shared/domain';
 import { panelLayout } from '@/shared/calc';
 import { fieldErrors, panelCreateBody, type Circuit, type Panel, type PanelPatchBody } from '@/shared/schemas';
 import { Button } from './button';
@@ -31,6 +31,8 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
     busRatingA: textOf(panel.busRatingA),
     mainRatingA: textOf(panel.mainRatingA),
     shortCircuitKA: textOf(panel.shortCircuitKA),
+    // a copy persisted before the field existed has none
+    terminationTempC: panel.terminationTempC ?? null,
     spaces: textOf(panel.spaces),
     maker: panel.maker,
     model: panel.model,
@@ -103,6 +105,17 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
           />
         </View>
       </View>
+      <ChoiceField
+        label="Terminations listed and marked for"
+        choices={[
+          { value: null, label: 'Not recorded' },
+          ...([60, 75, 90] as const).map((t) => ({ value: t as InsulationTempC | null, label: `${t} °C` })),
+        ]}
+        value={draft.terminationTempC}
+        onChange={set('terminationTempC')}
+        error={errors.terminationTempC}
+        hint="From the panel’s label. Not recorded: NEC 110.14(C)(1) takes 60 °C for circuits of 100 A or less or 14–1 AWG."
+      />
       <View style={styles.row}>
         <View style={styles.cell}>
           <TextField label="Short-circuit rating (kA)" value={draft.shortCircuitKA} onChangeText={set('shortCircuitKA')} error={errors.shortCircuitKA} keyboardType="decimal-pad" mono />

@@ -1,6 +1,6 @@
 import { useMemo, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
-import { panelLoad } from '@/shared/calc';
+import { PANEL_LOAD_FIGURES, panelLoad } from '@/shared/calc';
 import type { Phase } from '@/shared/domain';
 import type { Circuit, Panel } from '@/shared/schemas';
 import { Text } from './text';
@@ -13,7 +13,7 @@ const round = (n: number) => Math.round(n).toLocaleString('en-US');
 
 /**
  * The panel's loading at a glance: amps per phase as bars against the main (or bus) rating, with
- * imbalance, connected and demand load and utilisation. Tap for the numbers behind it.
+ * imbalance, the connected load and the sizing load (125 % of continuous) and utilisation. Tap for the numbers behind it.
  */
 export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: Circuit[] }) {
   const [open, setOpen] = useState(false);
@@ -34,7 +34,7 @@ export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: 
     >
       <View style={styles.bars}>
         {phases.map(([phase, p]) => {
-          const fraction = Math.min(1, p.demandA / capacity);
+          const fraction = Math.min(1, p.sizingA / capacity);
           return (
             <View key={phase} style={styles.barRow} accessibilityLabel={`Phase ${phase}: ${round(p.amps)} amperes`}>
               <Text variant="readingBold" style={styles.barLabel}>{phase}</Text>
@@ -53,8 +53,8 @@ export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: 
         })}
       </View>
       <View style={styles.facts}>
-        <Fact label="Connected" value={`${round(load.totalVA)} VA`} />
-        <Fact label="Demand" value={`${round(load.demandVA)} VA`} />
+        <Fact label={PANEL_LOAD_FIGURES.connected.label} value={`${round(load.totalVA)} VA`} testID="load-connected" />
+        <Fact label={PANEL_LOAD_FIGURES.sizing.label} value={`${round(load.sizingVA)} VA`} testID="load-sizing" />
         <Fact
           label="Imbalance"
           value={`${load.imbalancePct.toFixed(1)} %`}
@@ -70,13 +70,13 @@ export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: 
         <View style={styles.details} testID="panel-load-details">
           {phases.map(([phase, p]) => (
             <Text key={phase} variant="small">
-              Phase {phase}: {round(p.va)} VA connected, {round(p.amps)} A; demand {round(p.demandVA)} VA, {round(p.demandA)} A
+              Phase {phase}: {round(p.va)} VA connected, {round(p.amps)} A; sizing {round(p.sizingVA)} VA, {round(p.sizingA)} A
             </Text>
           ))}
           <Text variant="small" tone="soft">
-            Demand counts continuous loads at 125 % (NEC 210.20(A), 215.3); NEC 220 demand factors are not applied.
+            {PANEL_LOAD_FIGURES.connected.label}: {PANEL_LOAD_FIGURES.connected.rule}. {PANEL_LOAD_FIGURES.sizing.label}: {PANEL_LOAD_FIGURES.sizing.rule}; it is larger than the connected load and is not an NEC 220 demand load.
             Imbalance is the largest deviation of a phase current from their average (NEMA MG 1 definition).
-            Utilisation is the busiest phase's demand current against the {panel.mainRatingA ? 'main breaker' : 'bus'} rating.
+            Utilisation is the busiest phase's sizing current against the {panel.mainRatingA ? 'main breaker' : 'bus'} rating.
             Loads are as recorded on the schedule, not measured.
           </Text>
         </View>
@@ -87,9 +87,9 @@ export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: 
   );
 }
 
-function Fact({ label, value, note }: { label: string; value: string; note?: string }) {
+function Fact({ label, value, note, testID }: { label: string; value: string; note?: string; testID?: string }) {
   return (
-    <View style={styles.fact}>
+    <View style={styles.fact} testID={testID}>
       <Text variant="label" tone="soft">{label}</Text>
       <Text variant="readingBold">{value}</Text>
       {note && <Text variant="small" tone="warn">{note}</Text>}

@@ -32,7 +32,7 @@ const ROW_HEIGHT = 64;
 /** Warnings worth an electrician's attention (severity 'warning'), by circuit id. */
 export function warningsByCircuit(panel: Panel, circuits: Circuit[]): Map<string, CircuitWarning[]> {
   return new Map(
-    circuits.map((c) => [c.id, circuitWarnings(c, { system: panel.system }).filter((w) => w.severity === 'warning')]),
+    circuits.map((c) => [c.id, circuitWarnings(c, panel).filter((w) => w.severity === 'warning')]),
   );
 }
 

@@ -4,7 +4,7 @@
  * warnings and notes that go with it.
  */
 import { StyleSheet, View } from 'react-native';
-import type { Assessment } from '@/shared/assess';
+import { isJudged, type Assessment } from '@/shared/assess';
 import { PriorityChip } from './priority-chip';
 import { Text } from './text';
 import { colours, radii, space } from './theme';
@@ -15,7 +15,7 @@ const round1 = (x: number) => (Math.round(x * 10) / 10).toFixed(1);
 /** The priority a reading gives, or a plain "no action" mark (a word, never a colour alone). */
 export function ReadingPriority({ assessment }: { assessment: Assessment }) {
   if (assessment.priority !== null) return <PriorityChip priority={assessment.priority} />;
-  const judged = !(assessment.kind === 'trip' && (!assessment.result || assessment.result.verdict === null));
+  const judged = isJudged(assessment);
   return (
     <View style={[styles.noAction, !judged && styles.notJudged]} testID="reading-no-action">
       <Text variant="label" tone={judged ? 'ink' : 'soft'}>
@@ -33,6 +33,8 @@ function Figures({ assessment }: { assessment: Assessment }) {
         <Text variant="reading" testID="assessment-figures">
           ΔT {round1(assessment.riseC)} °C
           {assessment.correctedRiseC !== null ? ` · at reference load ${round1(assessment.correctedRiseC)} °C` : ''}
+          {assessment.correction === 'too-light' ? ' · too lightly loaded to judge' : ''}
+          {assessment.steadyState ? '' : ' · test pulse, not steady state'}
           {assessment.priority !== null ? ` · NETA priority ${assessment.priority}` : ''}
         </Text>
       );

@@ -27,12 +27,14 @@ export interface ReadingDraft {
   referenceBasis: ReadingFields['referenceBasis'];
   loadA: string;
   referenceLoadA: string;
+  duringTestPulse: boolean;
   fastener: string;
   specified: string;
   unit: ReadingFields['unit'];
   specSource: ReadingFields['specSource'];
   conductorSize: ConductorSize | null;
   screw: Screw | null;
+  screwSize: ReadingFields['screwSize'];
   asFound: ReadingFields['asFound'];
   asFoundValue: string;
   asLeft: string;
@@ -53,6 +55,8 @@ export function toReadingDraft(r: ReadingFields): ReadingDraft {
     referenceBasis: r.referenceBasis,
     loadA: textOf(r.loadA),
     referenceLoadA: textOf(r.referenceLoadA),
+    // a copy persisted before the field existed has none
+    duringTestPulse: r.duringTestPulse ?? false,
     // "main" is the stored name of the main lugs / main breaker, not something the user typed
     fastener: r.fastener === 'main' ? '' : r.fastener,
     specified: textOf(r.specified),
@@ -60,6 +64,7 @@ export function toReadingDraft(r: ReadingFields): ReadingDraft {
     specSource: r.specSource,
     conductorSize: r.conductorSize,
     screw: r.screw,
+    screwSize: r.screwSize ?? null,
     asFound: r.asFound,
     asFoundValue: textOf(r.asFoundValue),
     asLeft: textOf(r.asLeft),
@@ -84,6 +89,7 @@ export function fromReadingDraft(d: ReadingDraft, base: ReadingFields): ReadingF
         referenceBasis: d.referenceBasis,
         loadA: numberOrNull(d.loadA),
         referenceLoadA: numberOrNull(d.referenceLoadA),
+        duringTestPulse: d.duringTestPulse,
       };
     case 'torque': {
       const fastener = d.fastener.trim();
@@ -95,6 +101,8 @@ export function fromReadingDraft(d: ReadingDraft, base: ReadingFields): ReadingF
         specSource: d.specSource,
         conductorSize: d.conductorSize,
         screw: d.screw,
+        // only the kinds whose table goes by slot length or socket size keep one
+        screwSize: d.screw === 'socket' || d.screw === 'slotted-under-10-narrow' || d.screw === 'slotted-under-10-wide' ? d.screwSize : null,
         asFound: d.asFound,
         // it held at the specified torque: there is no separate figure to keep
         asFoundValue: d.asFound === 'turned' ? numberOrNull(d.asFoundValue) : null,
@@ -144,9 +152,9 @@ export function liveAssessment(
  * The UL 486A-486B fallback value (NEC Informative Annex I) for a wire size and screw kind, in
  * the unit the form uses; null where the table has none.
  */
-export function fallbackIn(unit: TorqueUnit, size: ConductorSize | null, screw: Screw | null): number | null {
+export function fallbackIn(unit: TorqueUnit, size: ConductorSize | null, screw: Screw | null, screwSize: string | null = null): number | null {
   if (!size || !screw) return null;
-  const value = fallbackTorque({ size, screw });
+  const value = fallbackTorque({ size, screw, screwSize });
   if (!value) return null;
   if (unit === 'lbf-in') return value.lbfIn;
   if (unit === 'N·m') return value.nm;

@@ -18,6 +18,7 @@ import { ChoiceField, TextField } from './fields';
 import { numberOrNull } from './form-values';
 import { fallbackIn, type ReadingDraft } from './reading-draft';
 import { ReadingCircuitPicker } from './reading-circuit-picker';
+import { MakerValueCheck, SCREW_HINT, SCREW_LABELS, ScrewSizeField, TestPulseField } from './reading-extras';
 import { Text } from './text';
 import { colours, radii, space } from './theme';
 
@@ -133,32 +134,27 @@ export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }:
       </Row>
       {!errors.loadA && !errors.referenceLoadA && (
         <Text variant="small" tone="faint">
-          Optional, both or neither: with them the rise is corrected to the reference load (e.g. the rating).
+          Optional, both or neither: a rise taken between 40 % and 100 % of the reference load is raised to it; one
+          taken at or above it is never lowered; under 40 % it is too lightly loaded to judge (NFPA 70B).
         </Text>
       )}
+      <TestPulseField value={draft.duringTestPulse} onChange={set('duringTestPulse')} />
     </>
   );
 }
 
 // ---------- torque ----------
 
-const SCREW_LABELS: Record<(typeof TORQUE_SCREWS)[number], string> = {
-  'slotted-small': 'Small slotted',
-  'slotted-large': 'Large slotted',
-  'split-bolt': 'Split-bolt',
-  hex: 'Other hex head',
-};
-const SCREW_HINT = 'Small slotted: slot up to 1.2 mm wide and 6.4 mm long; larger slots are large slotted.';
 
 export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) {
   const unit = draft.unit ?? 'lbf-in';
-  const table = fallbackIn(unit, draft.conductorSize, draft.screw);
+  const table = fallbackIn(unit, draft.conductorSize, draft.screw, draft.screwSize);
   const usesTable = draft.specSource === 'fallback-table';
   /** under the fallback, the specified value follows the table for the size, screw and unit chosen */
-  const follow = (next: Partial<Pick<ReadingDraft, 'unit' | 'conductorSize' | 'screw' | 'specSource'>>) => {
+  const follow = (next: Partial<Pick<ReadingDraft, 'unit' | 'conductorSize' | 'screw' | 'screwSize' | 'specSource'>>) => {
     const source = next.specSource ?? draft.specSource;
     if (source !== 'fallback-table') return;
-    const value = fallbackIn(next.unit ?? unit, next.conductorSize ?? draft.conductorSize, next.screw ?? draft.screw);
+    const value = fallbackIn(next.unit ?? unit, next.conductorSize ?? draft.conductorSize, next.screw ?? draft.screw, next.screwSize ?? draft.screwSize);
     if (value !== null) set('specified')(String(value));
   };
   const chooseCircuit = (id: string | null) => {
@@ -224,6 +220,15 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
         error={errors.screw}
         hint={SCREW_HINT}
       />
+      <ScrewSizeField
+        screw={draft.screw}
+        value={draft.screwSize}
+        onChange={(v) => {
+          set('screwSize')(v);
+          follow({ screwSize: v ?? undefined });
+        }}
+        error={errors.screwSize}
+      />
       {usesTable && (
         <View style={styles.fallback} testID="torque-fallback">
           <Text variant="label" tone="warn">UL 486A-B FALLBACK (AS PRINTED IN NEC ANNEX I)</Text>
@@ -265,6 +270,7 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
         hint={usesTable && table !== null ? 'Filled from the UL 486A-B table: change it only to the maker’s figure.' : undefined}
         testID="field-specified"
       />
+      <MakerValueCheck specified={draft.specified} unit={unit} size={draft.conductorSize} screw={draft.screw} screwSize={draft.screwSize} />
       <ChoiceField
         label="As found"
         choices={[

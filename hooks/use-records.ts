@@ -9,7 +9,7 @@ import { useCallback } from 'react';
 import { uuidv7 } from 'uuidv7';
 import { api } from '@/lib/api';
 import { EMPTY_REPLICA, recordsOf, type BuildingCopy, type RecordCopy, type Replica } from '@/lib/replica';
-import { assessReading, type Assessment } from '@/shared/assess';
+import { assessReading, terminationReadingOf, type Assessment } from '@/shared/assess';
 import { isOutstanding } from '@/shared/deficiency';
 import { nuisanceTripFindings, type TerminationReading } from '@/shared/calc';
 import type {
@@ -214,15 +214,10 @@ export function useCircuitRecord(circuitId: string) {
           .filter((x) => x.circuitId === circuitId)
           .sort((a, b) => b.id.localeCompare(a.id))
           .map((reading) => ({ reading, assessment: assessOnDevice(copy, reading, bands) }));
-        const terminations: TerminationReading[] = readings.flatMap(({ reading, assessment }): TerminationReading[] => {
-          if (assessment.kind === 'thermal') {
-            const riseC = assessment.correctedRiseC ?? assessment.riseC;
-            return [{ kind: 'thermal', riseC, basis: reading.referenceBasis ?? 'similar' }];
-          }
-          if (assessment.kind === 'torque' && assessment.verdict.asFound) {
-            return [{ kind: 'torque', verdict: assessment.verdict.asFound }];
-          }
-          return [];
+        // the judged rise: a test-pulse reading at its raw difference, a too-light one not at all
+        const terminations: TerminationReading[] = readings.flatMap(({ reading, assessment }) => {
+          const t = terminationReadingOf(reading, assessment);
+          return t ? [t] : [];
         });
         const findings = circuit.ratingA
           ? nuisanceTripFindings({

@@ -16,6 +16,10 @@
  *      (NEC 408.4(A) — must not depend on transient conditions of occupancy).
  *   4. clinic-LA pos 31 "Monument sign & drive lights": 20 A, 12 AWG Cu, 160 ft one-way, 1800 VA at
  *      120 V → about 9.5 V ≈ 7.9 % voltage drop (well past the 3 % branch-circuit recommendation).
+ *   5. cottage-LC1 pos 1 "Range": 50 A on 8 AWG Cu in an older load centre whose termination rating
+ *      was not recorded: NEC 110.14(C)(1)(a) takes the 60 °C column (40 A), so the 50 A breaker is
+ *      too big for the wire; with terminations marked 75 °C it would be 50 A and fine.
+ * Every other panel records terminations listed and marked 75 °C.
  * Everything else is meant to be clean: conductors match breaker ratings (some 120 V runs are
  * upsized to 10 AWG for voltage drop and say so in notes), continuous loads stay within 80 % of the
  * breaker, and every panel's positions 1..spaces are covered (trailing spaces are generated).
@@ -44,6 +48,8 @@ export interface DemoCircuit {
   conductorSize: ConductorSize | null;
   conductorMaterial: 'Cu' | 'Al' | null;
   insulationTempC: 60 | 75 | 90 | null;
+  /** this breaker's termination rating when it differs from the panel's; null = the panel's */
+  terminationTempC: 60 | 75 | 90 | null;
   /** one-way length */
   lengthFt: number | null;
   status: CircuitStatus;
@@ -64,6 +70,8 @@ export interface DemoPanel {
   /** null = main lugs only */
   mainRatingA: number | null;
   shortCircuitKA: number;
+  /** what the terminations are listed and marked for; null = not recorded (NEC 110.14(C)(1) → 60 °C ≤ 100 A) */
+  terminationTempC: 60 | 75 | 90 | null;
   spaces: number;
   fedFromPanelKey: string | null;
   fedFromPosition: number | null;
@@ -144,6 +152,7 @@ function ckt(
     conductorSize: opts.conductorSize ?? conductorFor(ratingA),
     conductorMaterial: opts.conductorMaterial ?? 'Cu',
     insulationTempC: opts.insulationTempC ?? 90,
+    terminationTempC: null,
     lengthFt,
     status: 'in-use',
     handleLock: opts.handleLock ?? false,
@@ -183,6 +192,7 @@ function spare(position: number, ratingA: number, poles: 1 | 2 | 3 = 1, notes = 
     conductorSize: null,
     conductorMaterial: null,
     insulationTempC: null,
+    terminationTempC: null,
     lengthFt: null,
     status: 'spare',
     handleLock: false,
@@ -204,6 +214,7 @@ function space(position: number): DemoCircuit {
     conductorSize: null,
     conductorMaterial: null,
     insulationTempC: null,
+    terminationTempC: null,
     lengthFt: null,
     status: 'space',
     handleLock: false,
@@ -245,6 +256,7 @@ const clinicMDP = panel(
     busRatingA: 400,
     mainRatingA: 400,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 30,
     fedFromPanelKey: null,
     fedFromPosition: null,
@@ -289,6 +301,7 @@ const clinicLA = panel(
     busRatingA: 225,
     mainRatingA: null,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 42,
     fedFromPanelKey: 'clinic-MDP',
     fedFromPosition: 1,
@@ -367,6 +380,7 @@ const clinicLB = panel(
     busRatingA: 100,
     mainRatingA: 100,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 30,
     fedFromPanelKey: 'clinic-MDP',
     fedFromPosition: 7,
@@ -428,6 +442,7 @@ const loftsMSB = panel(
     busRatingA: 800,
     mainRatingA: 800,
     shortCircuitKA: 65,
+    terminationTempC: 75,
     spaces: 30,
     fedFromPanelKey: null,
     fedFromPosition: null,
@@ -464,6 +479,7 @@ const loftsH1 = panel(
     busRatingA: 100,
     mainRatingA: null,
     shortCircuitKA: 65,
+    terminationTempC: 75,
     spaces: 30,
     fedFromPanelKey: 'lofts-MSB',
     fedFromPosition: 7,
@@ -508,6 +524,7 @@ const loftsDP1 = panel(
     busRatingA: 400,
     mainRatingA: 400,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 30,
     fedFromPanelKey: 'lofts-MSB',
     fedFromPosition: 1,
@@ -541,6 +558,7 @@ const lofts1LA = panel(
     busRatingA: 125,
     mainRatingA: 125,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 42,
     fedFromPanelKey: 'lofts-DP1',
     fedFromPosition: 1,
@@ -600,6 +618,7 @@ const lofts1LB = panel(
     busRatingA: 100,
     mainRatingA: 100,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 30,
     fedFromPanelKey: 'lofts-DP1',
     fedFromPosition: 7,
@@ -641,6 +660,7 @@ const loftsHP = panel(
     busRatingA: 125,
     mainRatingA: null,
     shortCircuitKA: 22,
+    terminationTempC: 75,
     spaces: 42,
     fedFromPanelKey: 'lofts-DP1',
     fedFromPosition: 13,
@@ -728,6 +748,8 @@ const cottageLC1 = panel(
     busRatingA: 200,
     mainRatingA: 200,
     shortCircuitKA: 10,
+    // an older load centre whose label was not read at the survey: 110.14(C)(1)(a) takes 60 °C
+    terminationTempC: null,
     spaces: 30,
     fedFromPanelKey: null,
     fedFromPosition: null,
@@ -738,7 +760,10 @@ const cottageLC1 = panel(
   },
   [
     // left column
-    ckt(1, 2, 40, 'Range (2-pole)', 'appliance', 8000, 35),
+    ckt(1, 2, 50, 'Range (2-pole)', 'appliance', 8000, 35, {
+      conductorSize: '8',
+      notes: '8 AWG copper cable, run when the range was changed.',
+    }),
     ckt(5, 1, 20, 'Kitchen counter receptacles left (dual function)', 'receptacles', 1500, 30, {
       breakerType: 'dual-function',
     }),
@@ -784,6 +809,7 @@ const cottageGP = panel(
     busRatingA: 100,
     mainRatingA: 60,
     shortCircuitKA: 10,
+    terminationTempC: 75,
     spaces: 12,
     fedFromPanelKey: 'cottage-LC1',
     fedFromPosition: 24,

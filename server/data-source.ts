@@ -8,6 +8,7 @@ import { ConditionRecord1765200000000 } from './migrations/1765200000000-conditi
 import { Access1765300000000 } from './migrations/1765300000000-access';
 import { ExactNumbers1765410000000 } from './migrations/1765410000000-exact-numbers';
 import { ReplayGuardPerUser1765420000000 } from './migrations/1765420000000-replay-guard-per-user';
+import { Judgements1765413000000 } from './migrations/1765413000000-judgements';
 
 export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
   return new DataSource({
@@ -21,6 +22,7 @@ export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
       ConditionRecord1765200000000,
       Access1765300000000,
       ExactNumbers1765410000000,
+      Judgements1765413000000,
       ReplayGuardPerUser1765420000000,
     ],
     synchronize: false,

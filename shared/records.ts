@@ -42,7 +42,21 @@ export const THERMAL_COMPONENT_LABELS: Record<(typeof THERMAL_COMPONENTS)[number
 };
 export const READING_PHASES = ['A', 'B', 'C', 'N'] as const;
 export const TORQUE_UNITS = ['N·m', 'lbf-in', 'lbf-ft'] as const;
-export const TORQUE_SCREWS = ['slotted-small', 'slotted-large', 'split-bolt', 'hex'] as const;
+/**
+ * UL 486A-486B screw kinds (NEC Informative Annex I): Table I.1 columns by wire size (slotted
+ * heads No. 10 and larger, screws and set screws alike), Table I.2 slotted heads smaller than
+ * No. 10 by slot length (narrow: slot under 1.2 mm wide; wide: 1.2 mm and over), Table I.3
+ * internal-drive socket (hex socket set screws and cap screws) by socket size across flats.
+ */
+export const TORQUE_SCREWS = [
+  'slotted-small', 'slotted-large', 'split-bolt', 'hex', 'slotted-under-10-narrow', 'slotted-under-10-wide', 'socket',
+] as const;
+/** Table I.2 slot lengths, mm ('<4' = less than 4 mm) */
+export const SLOT_LENGTHS_MM = ['<4', '4', '4.8', '5.5', '6.4'] as const;
+/** Table I.3 socket sizes across flats, inches */
+export const SOCKET_SIZES_IN = ['1/8', '5/32', '3/16', '7/32', '1/4', '5/16', '3/8', '1/2', '9/16'] as const;
+/** the slot length (slotted smaller than No. 10) or the socket size (socket), where the kind needs one */
+export const SCREW_SIZES = [...SLOT_LENGTHS_MM, ...SOCKET_SIZES_IN] as const;
 /** where a specified torque came from: the maker's instructions govern; the table is a fallback */
 export const TORQUE_SOURCES = ['maker', 'fallback-table'] as const;
 
@@ -148,6 +162,11 @@ const readingFieldsBase = z.object({
   referenceBasis: enumOf(['similar', 'ambient'] as const, 'reference').nullable(),
   loadA: num('amperes').positive('must be more than 0').max(10000).nullable(),
   referenceLoadA: num('amperes').positive('must be more than 0').max(10000).nullable(),
+  /**
+   * taken during a test pulse of seconds (e.g. a trip test): not thermal steady state, so the raw
+   * difference is judged and no load correction applies [CP]
+   */
+  duringTestPulse: z.boolean({ error: 'yes or no' }),
   // torque
   /** 'main' for the main lugs or main breaker; else the circuit's terminal */
   fastener: text(120),
@@ -156,6 +175,7 @@ const readingFieldsBase = z.object({
   specSource: enumOf(TORQUE_SOURCES, 'source').nullable(),
   conductorSize: enumOf(CONDUCTOR_SIZES, 'conductor size').nullable(),
   screw: enumOf(TORQUE_SCREWS, 'screw').nullable(),
+  screwSize: enumOf(SCREW_SIZES, 'slot length or socket size').nullable(),
   /** as found: did the fastener hold at the specified torque, or turn */
   asFound: enumOf(['held', 'turned'] as const, 'as found').nullable(),
   asFoundValue: num('torque').min(0).max(10000).nullable(),
@@ -204,6 +224,15 @@ export function readingRuleErrors(r: ReadingFields): Record<string, string> {
   if (r.kind === 'torque' && r.asFound === 'turned' && r.asFoundValue === null) {
     out.asFoundValue = 'enter the torque at which it turned';
   }
+  if (r.kind === 'torque' && (r.screw === 'slotted-under-10-narrow' || r.screw === 'slotted-under-10-wide')) {
+    if (r.screwSize === null || !(SLOT_LENGTHS_MM as readonly string[]).includes(r.screwSize)) out.screwSize = 'choose the slot length';
+    if (r.conductorSize !== null && !['14', '12', '10', '8'].includes(r.conductorSize)) {
+      out.conductorSize = 'screws smaller than No. 10 are for 8 AWG and smaller';
+    }
+  }
+  if (r.kind === 'torque' && r.screw === 'socket' && (r.screwSize === null || !(SOCKET_SIZES_IN as readonly string[]).includes(r.screwSize))) {
+    out.screwSize = 'choose the socket size across flats';
+  }
   if (r.kind === 'thermal' && (r.loadA === null) !== (r.referenceLoadA === null)) {
     out[r.loadA === null ? 'loadA' : 'referenceLoadA'] = 'give both loads to correct the rise, or neither';
   }
@@ -221,12 +250,14 @@ export const readingCreateBody = readingFieldsBase
     referenceBasis: readingShape.referenceBasis.default(null),
     loadA: readingShape.loadA.default(null),
     referenceLoadA: readingShape.referenceLoadA.default(null),
+    duringTestPulse: readingShape.duringTestPulse.default(false),
     fastener: readingShape.fastener.default(''),
     specified: readingShape.specified.default(null),
     unit: readingShape.unit.default(null),
     specSource: readingShape.specSource.default(null),
     conductorSize: readingShape.conductorSize.default(null),
     screw: readingShape.screw.default(null),
+    screwSize: readingShape.screwSize.default(null),
     asFound: readingShape.asFound.default(null),
     asFoundValue: readingShape.asFoundValue.default(null),
     asLeft: readingShape.asLeft.default(null),
@@ -402,6 +433,22 @@ const bandFieldsBase = z.object({
     .max(40)
     .refine((ps) => ps.every((p, i) => i === 0 || p.multiple > ps[i - 1].multiple), {
       message: 'points must go up in multiple of rating',
+    })
+    .superRefine((ps, ctx) => {
+      // an inverse-time band falls as current rises: a time that rises is an entry error [CP]
+      ps.forEach((p, i) => {
+        const before = ps[i - 1];
+        if (i === 0 || !(p.multiple > before.multiple)) return;
+        for (const edge of ['minS', 'maxS'] as const) {
+          if (p[edge] > before[edge]) {
+            ctx.addIssue({
+              code: 'custom',
+              path: [i, edge],
+              message: `the ${edge === 'minS' ? 'minimum' : 'maximum'} time cannot rise as current rises (${before[edge]} s at ${before.multiple}×)`,
+            });
+          }
+        }
+      });
     }),
   /** instantaneous pickup as a multiple of the rating, and its tolerance ±% */
   instantaneousMultiple: num('').positive().max(100).nullable(),

@@ -114,6 +114,11 @@ const panelFieldsBase = z.object({
     .max(200, 'at most 200 kA')
     .nullable()
     ,
+  /**
+   * the temperature the panel's terminations are listed and marked for; null = not known, and NEC
+   * 110.14(C)(1) then takes 60 °C for circuits of 100 A or less or 14–1 AWG
+   */
+  terminationTempC: literalUnion(INSULATION_TEMPS_C, 'termination rating').nullable(),
   spaces: z
     .number({ error: 'must be a number' })
     .int('a whole number')
@@ -135,6 +140,7 @@ export const panelCreateBody = panelFieldsBase.extend({
   kind: panelShape.kind.default('panelboard'),
   mainRatingA: panelShape.mainRatingA.default(null),
   shortCircuitKA: panelShape.shortCircuitKA.default(null),
+  terminationTempC: panelShape.terminationTempC.default(null),
   fedFromPanelId: panelShape.fedFromPanelId.default(null),
   fedFromPosition: panelShape.fedFromPosition.default(null),
   maker: panelShape.maker.default(''),
@@ -156,6 +162,7 @@ export const panelSchema = z.object({
   busRatingA: z.number(),
   mainRatingA: z.number().nullable(),
   shortCircuitKA: z.number().nullable(),
+  terminationTempC: z.union([z.literal(60), z.literal(75), z.literal(90)]).nullable(),
   spaces: z.number(),
   fedFromPanelId: z.string().nullable(),
   fedFromPosition: z.number().nullable(),
@@ -191,6 +198,8 @@ const circuitFieldsBase = z.object({
   conductorSize: z.enum(CONDUCTOR_SIZES, { error: 'choose a conductor size' }).nullable(),
   conductorMaterial: z.enum(MATERIALS, { error: 'Cu or Al' }).nullable(),
   insulationTempC: literalUnion(INSULATION_TEMPS_C, 'insulation rating').nullable(),
+  /** this breaker's termination rating when it differs from the panel's; null = the panel's */
+  terminationTempC: literalUnion(INSULATION_TEMPS_C, 'termination rating').nullable(),
   /** one-way length */
   lengthFt: z
     .number({ error: 'must be a length in feet' })
@@ -242,6 +251,7 @@ export const circuitCreateBody = circuitFieldsBase
     conductorSize: circuitShape.conductorSize.default(null),
     conductorMaterial: circuitShape.conductorMaterial.default(null),
     insulationTempC: circuitShape.insulationTempC.default(null),
+    terminationTempC: circuitShape.terminationTempC.default(null),
     lengthFt: circuitShape.lengthFt.default(null),
     status: circuitShape.status.default('in-use'),
     feedsPanelId: circuitShape.feedsPanelId.default(null),
@@ -269,6 +279,7 @@ export const circuitSchema = z.object({
   conductorSize: z.enum(CONDUCTOR_SIZES).nullable(),
   conductorMaterial: z.enum(MATERIALS).nullable(),
   insulationTempC: z.union([z.literal(60), z.literal(75), z.literal(90)]).nullable(),
+  terminationTempC: z.union([z.literal(60), z.literal(75), z.literal(90)]).nullable(),
   lengthFt: z.number().nullable(),
   status: z.enum(CIRCUIT_STATUSES),
   feedsPanelId: z.string().nullable(),

@@ -54,6 +54,10 @@ export class Circuit extends SyncColumns {
   @Column('smallint', { name: 'insulation_temp_c', nullable: true })
   insulationTempC: InsulationTempC | null;
 
+  /** this breaker's termination rating when it differs from the panel's; null = the panel's */
+  @Column('smallint', { name: 'termination_temp_c', nullable: true })
+  terminationTempC: InsulationTempC | null;
+
   @Column('double precision', { name: 'length_ft', nullable: true })
   lengthFt: number | null;
 

@@ -1,5 +1,5 @@
 import { Column, Entity, Index } from 'typeorm';
-import type { EquipmentCondition, PanelKind, PanelSystem } from '../../shared/domain';
+import type { EquipmentCondition, InsulationTempC, PanelKind, PanelSystem } from '../../shared/domain';
 import { SyncColumns } from './sync-columns';
 
 @Entity('panel')
@@ -29,6 +29,10 @@ export class Panel extends SyncColumns {
 
   @Column('double precision', { name: 'short_circuit_ka', nullable: true })
   shortCircuitKA: number | null;
+
+  /** the temperature its terminations are listed and marked for; null = not known (NEC 110.14(C)(1)) */
+  @Column('smallint', { name: 'termination_temp_c', nullable: true })
+  terminationTempC: InsulationTempC | null;
 
   @Column('integer')
   spaces: number;

@@ -46,6 +46,10 @@ export class Reading extends SyncColumns {
   @Column('double precision', { name: 'reference_load_a', nullable: true })
   referenceLoadA: number | null;
 
+  /** taken during a test pulse of seconds: not thermal steady state */
+  @Column('boolean', { name: 'during_test_pulse', default: false })
+  duringTestPulse: boolean;
+
   @Column('text', { default: '' })
   fastener: string;
 
@@ -63,6 +67,10 @@ export class Reading extends SyncColumns {
 
   @Column('text', { nullable: true })
   screw: ReadingFields['screw'];
+
+  /** slot length (slotted smaller than No. 10) or socket size across flats */
+  @Column('text', { name: 'screw_size', nullable: true })
+  screwSize: ReadingFields['screwSize'];
 
   @Column('text', { name: 'as_found', nullable: true })
   asFound: ReadingFields['asFound'];

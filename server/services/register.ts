@@ -1027,6 +1027,7 @@ const FREE_CIRCUIT_FIELDS: ReadonlySet<string> = new Set([
   'conductorSize',
   'conductorMaterial',
   'insulationTempC',
+  'terminationTempC',
   'lengthFt',
   'handleLock',
   'notes',

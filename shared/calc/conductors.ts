@@ -7,6 +7,7 @@
  */
 import { conductorSizeLabel } from '../domain';
 import type { ConductorMaterial, ConductorSize, InsulationTempC } from '../domain';
+import { positive } from './guard';
 
 /** [60 °C, 75 °C, 90 °C] allowable ampacity, A */
 type AmpacityRow = readonly [number, number, number];
@@ -113,8 +114,10 @@ export const FUSE_ONLY_RATINGS_A: readonly number[] = [1, 3, 6, 10];
 
 /**
  * The smallest NEC 240.6(A) (2023) standard rating at or above `amps`, or null above 6000 A.
+ * @throws RangeError when amps is not a finite number > 0.
  */
 export function nextStandardRatingA(amps: number): number | null {
+  positive('amps', amps);
   for (const rating of STANDARD_RATINGS_A) if (rating >= amps) return rating;
   return null;
 }
@@ -126,11 +129,38 @@ export interface ConductorCheckInput {
   material: ConductorMaterial;
   insulationTempC: InsulationTempC;
   /**
-   * Temperature rating of the terminations. Defaults to 75 °C: most modern panelboards are marked
-   * for 75 °C [CP]. NEC 110.14(C) would have ≤ 100 A / 14–1 AWG terminations at 60 °C unless the
-   * equipment is listed and marked for 75 °C (from memory for the exact wording) — pass 60 then.
+   * Temperature rating the terminations are listed and marked for; null or absent when not known,
+   * and then NEC 110.14(C)(1) decides: (a) circuits rated 100 A or less, or 14–1 AWG conductors,
+   * at 60 °C; (b) over 100 A and larger than 1 AWG at 75 °C.
    */
-  terminalTempC?: InsulationTempC;
+  terminalTempC?: InsulationTempC | null;
+}
+
+/** Conductor sizes 110.14(C)(1)(a) names: 14 AWG through 1 AWG. */
+const SMALL_TERMINATION_SIZES: readonly ConductorSize[] = ['14', '12', '10', '8', '6', '4', '3', '2', '1'];
+
+/**
+ * The termination temperature to use, NEC 110.14(C)(1) (2020/2023): the marked rating when known;
+ * unknown → 60 °C for circuits ≤ 100 A or 14–1 AWG conductors ((a)), else 75 °C ((b)).
+ */
+export function terminationTempFor({
+  ratingA,
+  size,
+  markedC,
+}: {
+  ratingA: number;
+  size: ConductorSize;
+  markedC: InsulationTempC | null | undefined;
+}): { tempC: InsulationTempC; basis: string } {
+  positive('ratingA', ratingA);
+  if (markedC !== null && markedC !== undefined) {
+    if (![60, 75, 90].includes(markedC)) throw new RangeError(`termination rating must be 60, 75 or 90 °C, got ${String(markedC)}`);
+    return { tempC: markedC, basis: `terminations marked ${markedC} °C` };
+  }
+  if (ratingA <= 100 || SMALL_TERMINATION_SIZES.includes(size)) {
+    return { tempC: 60, basis: 'termination rating not recorded: 60 °C for 100 A or less or 14–1 AWG, NEC 110.14(C)(1)(a)' };
+  }
+  return { tempC: 75, basis: 'termination rating not recorded: 75 °C over 100 A, NEC 110.14(C)(1)(b)' };
 }
 
 export interface ConductorCheck {
@@ -145,6 +175,8 @@ export interface ConductorCheck {
   reasons: string[];
   /** temperature column used: the lower of insulation and terminal temperature (110.14(C)) */
   tempC: InsulationTempC;
+  /** where the termination temperature came from (marked, or the 110.14(C)(1) rule) */
+  terminationBasis: string;
   /** Table 310.16 ampacity at tempC */
   ampacityA: number | null;
   /** device rating the ampacity alone allows, with the 240.4(B) next size up where it applies */
@@ -163,16 +195,20 @@ export interface ConductorCheck {
  * Is the conductor protected by a device of `ratingA`?
  *
  * - Ampacity from NEC Table 310.16 (2014/2017 text) at the lower of the insulation and terminal
- *   temperature ratings (NEC 110.14(C)).
+ *   temperature ratings (NEC 110.14(C)); an unknown terminal rating follows 110.14(C)(1)
+ *   ({@link terminationTempFor}): 60 °C at 100 A or less or for 14–1 AWG.
  * - NEC 240.4(B): where that ampacity is not a 240.6(A) standard rating, the next higher standard
  *   rating is allowed if it is ≤ 800 A (the multioutlet cord-and-plug exclusion is not modelled;
  *   exact conditions from memory).
  * - NEC 240.4(D) caps small conductors (14–10 AWG) regardless of ampacity.
+ * @throws RangeError when ratingA is not a finite number > 0.
  */
 export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
   const { ratingA, size, material, insulationTempC } = input;
-  const terminalTempC = input.terminalTempC ?? 75;
+  const termination = terminationTempFor({ ratingA, size, markedC: input.terminalTempC });
+  const terminalTempC = termination.tempC;
   const tempC = insulationTempC < terminalTempC ? insulationTempC : terminalTempC;
+  const terminationBasis = termination.basis;
   const ampacityA = ampacity({ size, material, tempC });
   const limitA = smallConductorLimitA(size, material);
   const label = `${conductorSizeLabel(size)} ${material === 'Cu' ? 'copper' : 'aluminium'}`;
@@ -185,6 +221,7 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
       allowedA: null,
       reasons,
       tempC,
+      terminationBasis,
       ampacityA,
       allowedByAmpacityA: null,
       nextSizeUpApplied: false,
@@ -209,7 +246,7 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
 
   if (overAmpacity) {
     reasons.push(
-      `${label} is good for ${ampacityA} A at ${tempC} °C (NEC Table 310.16)` +
+      `${label} is good for ${ampacityA} A at ${tempC} °C (NEC Table 310.16; ${terminationBasis})` +
         (nextSizeUpApplied ? `, ${allowedByAmpacityA} A with the next size up (240.4(B))` : '') +
         `; a ${ratingA} A breaker is too big for it.`,
     );
@@ -224,6 +261,7 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
     allowedA,
     reasons,
     tempC,
+    terminationBasis,
     ampacityA,
     allowedByAmpacityA,
     nextSizeUpApplied,

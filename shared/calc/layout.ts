@@ -8,12 +8,17 @@
  */
 import { SYSTEM_INFO } from '../domain';
 import type { PanelSystem, Phase } from '../domain';
+import { finite, wholeFrom } from './guard';
 
 const PHASES_1: readonly Phase[] = ['A', 'B'];
 const PHASES_3: readonly Phase[] = ['A', 'B', 'C'];
 
-/** Row of a position under standard panelboard numbering [CP]: 1 and 2 → row 1, 3 and 4 → row 2 … */
+/**
+ * Row of a position under standard panelboard numbering [CP]: 1 and 2 → row 1, 3 and 4 → row 2 …
+ * @throws RangeError when position is not a whole number ≥ 1.
+ */
 export function rowOf(position: number): number {
+  wholeFrom('position', position, 1);
   return Math.ceil(position / 2);
 }
 
@@ -37,8 +42,11 @@ export function phaseOf(system: PanelSystem, position: number): Phase {
 /**
  * Positions a breaker occupies: a 1-pole at n takes n; a 2-pole n and n+2; a 3-pole n, n+2, n+4
  * (the poles stack down one side, one row each — standard numbering [CP]).
+ * @throws RangeError when position is not a whole number ≥ 1 or poles is not 1, 2 or 3.
  */
 export function occupiedPositions(position: number, poles: number): number[] {
+  wholeFrom('position', position, 1);
+  if (!Number.isInteger(poles) || poles < 1 || poles > 3) throw new RangeError(`poles must be 1, 2 or 3, got ${String(poles)}`);
   const out: number[] = [];
   for (let pole = 0; pole < poles; pole += 1) out.push(position + 2 * pole);
   return out;
@@ -91,9 +99,13 @@ export interface PanelLayout {
  *   order breaks ties), so the later one is reported and the earlier keeps the slot.
  * - 'same-phase': a multi-pole breaker whose poles land on the same phase twice (cannot happen
  *   with standard numbering and valid poles, kept as a guard).
+ * A circuit's bad position or poles is a problem of the layout (reported, not thrown); a panel's
+ * `spaces` that is not a whole number ≥ 0 is refused.
+ * @throws RangeError on a panel's spaces that is not a whole number ≥ 0.
  */
 export function panelLayout(panel: LayoutPanel, circuits: readonly LayoutCircuit[]): PanelLayout {
-  const spaces = Number.isFinite(panel.spaces) ? Math.max(0, Math.floor(panel.spaces)) : 0;
+  finite('spaces', panel.spaces);
+  const spaces = wholeFrom('spaces', panel.spaces, 0);
   const singlePhase = SYSTEM_INFO[panel.system].phases === 1;
   const slots: LayoutSlot[] = [];
   for (let position = 1; position <= spaces; position += 1) {
@@ -176,6 +188,7 @@ export function panelLayout(panel: LayoutPanel, circuits: readonly LayoutCircuit
 /**
  * The first position a circuit would take that another circuit already occupies, and that
  * circuit; null when it fits beside them. Standard numbering (a 2-pole at n takes n and n+2) [CP].
+ * @throws RangeError as {@link occupiedPositions} for the candidate or another circuit.
  */
 export function positionClash<C extends LayoutCircuit>(
   candidate: LayoutCircuit,

@@ -7,6 +7,25 @@
 import { SYSTEM_INFO } from '../domain';
 import type { LoadKind, PanelSystem, Phase } from '../domain';
 import { occupiedPositions, phaseOf } from './layout';
+import { nonNegative, positive } from './guard';
+
+/**
+ * The names of the panel's load figures, with their rule, for every screen and report that shows
+ * them: the sizing figure is larger than the connected one (it counts continuous loads at 125 %),
+ * so neither may be called "demand" (NEC 220 demand factors are not applied here).
+ */
+export const PANEL_LOAD_FIGURES = {
+  connected: {
+    label: 'Connected load',
+    rule: 'the loads on the schedule added up, as recorded (not measured)',
+  },
+  sizing: {
+    label: 'Sizing load',
+    rule:
+      '125 % of continuous + non-continuous loads, the minimum for the overcurrent device and conductors ' +
+      '(NEC 210.19(A)(1), 210.20(A), 215.2(A)(1), 215.3)',
+  },
+} as const;
 
 export interface RequiredOcpdInput {
   continuousA: number;
@@ -17,8 +36,11 @@ export interface RequiredOcpdInput {
  * Minimum overcurrent device rating: noncontinuous load + 125 % of continuous load.
  * NEC 210.20(A) (branch circuits) and 215.3 (feeders), 2017–2023; does not apply to an assembly
  * listed for 100 % operation. The same figure is the minimum conductor ampacity, 210.19(A)(1).
+ * @throws RangeError when either load is negative or not a finite number.
  */
 export function requiredOcpdA({ continuousA, noncontinuousA }: RequiredOcpdInput): number {
+  nonNegative('continuousA', continuousA);
+  nonNegative('noncontinuousA', noncontinuousA);
   return noncontinuousA + 1.25 * continuousA;
 }
 
@@ -67,8 +89,10 @@ export interface CircuitCurrentInput {
  * ({@link phaseToNeutralV}); 2-pole (line-to-line single-phase load) VA / lineV; 3-pole
  * VA / (√3 × lineV). Ohm's-law power relations for single- and three-phase loads (any
  * electrical handbook). Null for a 3-pole on a single-phase system or poles outside 1–3.
+ * @throws RangeError on a negative or non-finite load, or a position that is not a whole number ≥ 1.
  */
 export function circuitCurrentA({ system, position, poles, loadVA }: CircuitCurrentInput): number | null {
+  nonNegative('loadVA', loadVA);
   const info = SYSTEM_INFO[system];
   if (poles === 1) return loadVA / phaseToNeutralV(system, phaseOf(system, position));
   if (poles === 2) return loadVA / info.lineV;
@@ -97,10 +121,10 @@ export interface PhaseLoad {
   va: number;
   /** connected line current on this phase */
   amps: number;
-  /** demand VA on this phase (continuous × 1.25) */
-  demandVA: number;
-  /** demand line current on this phase (continuous × 1.25) */
-  demandA: number;
+  /** sizing VA on this phase (continuous × 1.25 + non-continuous) */
+  sizingVA: number;
+  /** sizing line current on this phase (continuous × 1.25 + non-continuous) */
+  sizingA: number;
 }
 
 export interface PanelLoad {
@@ -109,9 +133,9 @@ export interface PanelLoad {
   totalVA: number;
   /** NEMA MG 1 unbalance of the phase amps, % */
   imbalancePct: number;
-  /** continuous at 125 % + noncontinuous at 100 %, VA (NEC 215.3 style) */
-  demandVA: number;
-  /** worst phase demand amps / min(main, bus) × 100; null when no positive rating is given */
+  /** sizing load: continuous at 125 % + noncontinuous at 100 %, VA (NEC 210.20(A), 215.3) */
+  sizingVA: number;
+  /** worst phase sizing amps / min(main, bus) × 100; null when no positive rating is given */
   utilisationPct: number | null;
   /** the rating utilisation is measured against: min(main ?? bus, bus) */
   capacityA: number | null;
@@ -122,7 +146,7 @@ export interface PanelLoad {
 }
 
 /**
- * Connected and demand loading of a panel, per phase.
+ * Connected and sizing loading of a panel, per phase ({@link PANEL_LOAD_FIGURES}).
  *
  * Conventions (documented because panel schedules differ):
  * - Phase of every occupied position from {@link phaseOf}; a multi-pole load's VA is split evenly
@@ -137,24 +161,29 @@ export interface PanelLoad {
  *   high [CP].
  * - imbalancePct: NEMA MG 1 definition applied to the phase amps. No standard limits panel
  *   current imbalance; flagging more than about 10–20 % is common practice [CP].
- * - demandVA: continuous loads at 125 % plus noncontinuous at 100 %, the NEC 215.3 / 210.20(A)
- *   sizing rule (2017–2023); NEC 220 demand factors are not applied here (see
+ * - sizingVA: continuous loads at 125 % plus noncontinuous at 100 %, the NEC 215.3 / 210.20(A)
+ *   sizing rule (2017–2023); it is not a demand load: NEC 220 demand factors are not applied here (see
  *   {@link lightingDemandVA}, {@link receptacleDemandVA}).
- * - utilisationPct: worst phase demand amps over min(main rating ?? bus rating, bus rating).
+ * - utilisationPct: worst phase sizing amps over min(main rating ?? bus rating, bus rating).
  * Zero load gives zeros, never NaN.
+ * @throws RangeError when the bus or main rating is not a finite number > 0, or a circuit's load
+ * is negative or not a finite number.
  */
 export function panelLoad(panel: PanelLoadPanel, circuits: readonly PanelLoadCircuit[]): PanelLoad {
   const { system, busRatingA } = panel;
+  positive('busRatingA', busRatingA);
+  if (panel.mainRatingA !== undefined && panel.mainRatingA !== null) positive('mainRatingA', panel.mainRatingA);
+  for (const c of circuits) if (c.loadVA !== null) nonNegative(`loadVA at position ${c.position}`, c.loadVA);
   const threePhase = SYSTEM_INFO[system].phases === 3;
   const phaseNames: Phase[] = threePhase ? ['A', 'B', 'C'] : ['A', 'B'];
   const acc: Record<Phase, PhaseLoad> = {
-    A: { va: 0, amps: 0, demandVA: 0, demandA: 0 },
-    B: { va: 0, amps: 0, demandVA: 0, demandA: 0 },
-    C: { va: 0, amps: 0, demandVA: 0, demandA: 0 },
+    A: { va: 0, amps: 0, sizingVA: 0, sizingA: 0 },
+    B: { va: 0, amps: 0, sizingVA: 0, sizingA: 0 },
+    C: { va: 0, amps: 0, sizingVA: 0, sizingA: 0 },
   };
   const byLoadKindVA: Partial<Record<LoadKind, number>> = {};
   let totalVA = 0;
-  let demandVA = 0;
+  let sizingVA = 0;
   let skippedCircuits = 0;
 
   for (const circuit of circuits) {
@@ -171,11 +200,11 @@ export function panelLoad(panel: PanelLoadPanel, circuits: readonly PanelLoadCir
       const phase = phaseOf(system, p);
       acc[phase].va += loadVA / poles;
       acc[phase].amps += lineA;
-      acc[phase].demandVA += (factor * loadVA) / poles;
-      acc[phase].demandA += factor * lineA;
+      acc[phase].sizingVA += (factor * loadVA) / poles;
+      acc[phase].sizingA += factor * lineA;
     }
     totalVA += loadVA;
-    demandVA += factor * loadVA;
+    sizingVA += factor * loadVA;
     byLoadKindVA[circuit.loadKind] = (byLoadKindVA[circuit.loadKind] ?? 0) + loadVA;
   }
 
@@ -183,14 +212,14 @@ export function panelLoad(panel: PanelLoadPanel, circuits: readonly PanelLoadCir
   const main = panel.mainRatingA ?? busRatingA;
   const capacity = Math.min(main, busRatingA);
   const capacityA = Number.isFinite(capacity) && capacity > 0 ? capacity : null;
-  const worstDemandA = Math.max(...phaseNames.map((phase) => acc[phase].demandA));
-  const utilisationPct = capacityA === null ? null : (100 * worstDemandA) / capacityA;
+  const worstSizingA = Math.max(...phaseNames.map((phase) => acc[phase].sizingA));
+  const utilisationPct = capacityA === null ? null : (100 * worstSizingA) / capacityA;
 
   return {
     phases: threePhase ? { A: acc.A, B: acc.B, C: acc.C } : { A: acc.A, B: acc.B },
     totalVA,
     imbalancePct,
-    demandVA,
+    sizingVA,
     utilisationPct,
     capacityA,
     byLoadKindVA,

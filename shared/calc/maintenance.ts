@@ -6,7 +6,9 @@
  * months (seen in the published text); condition 2 → 36, condition 3 → 12 (from memory).
  * Thermographic survey at least every 12 months, every 6 months in condition 3.
  */
+import { EQUIPMENT_CONDITIONS, PANEL_KINDS } from '../domain';
 import type { EquipmentCondition, PanelKind } from '../domain';
+import { oneOf } from './guard';
 
 export type MaintenanceTask = 'thermography' | 'maintenance';
 /** Equipment kinds we schedule; a load centre is a panelboard for NFPA 70B purposes. */
@@ -39,12 +41,17 @@ const PANELBOARD_MONTHS: Record<EquipmentCondition, { months: number; verified: 
 /**
  * The maximum maintenance interval, months, for a task on equipment in a condition, NFPA 70B 2023;
  * null where we have no figure on file (switchboard maintenance intervals).
+ * @throws RangeError on a condition other than 1, 2 or 3 (NFPA 70B has no other), an unknown
+ * equipment kind or task.
  */
 export function maintenanceIntervalMonths(
   equipment: MaintainedEquipment,
   condition: EquipmentCondition,
   task: MaintenanceTask,
 ): { months: number; basis: string; verified: boolean } | null {
+  oneOf('NFPA 70B condition', condition, EQUIPMENT_CONDITIONS);
+  oneOf('equipment', equipment, PANEL_KINDS);
+  oneOf('task', task, ['thermography', 'maintenance'] as const);
   if (task === 'thermography') {
     const months = condition === 3 ? 6 : 12;
     return {
@@ -69,7 +76,7 @@ export function maintenanceIntervalMonths(
  * Calendar months in UTC; a day past the end of the target month is clamped to its last day
  * (Jan 31 + 1 month → Feb 28, or Feb 29 in a leap year). Null where no interval is on file
  * (maintenance of switchboards: take it from the standard's table and schedule by hand).
- * @throws RangeError when lastDoneOn is not a real 'YYYY-MM-DD' date.
+ * @throws RangeError when lastDoneOn is not a real 'YYYY-MM-DD' date, or as maintenanceIntervalMonths.
  */
 export function nextDueDate({ equipment, condition, task, lastDoneOn }: NextDueInput): NextDue | null {
   const interval = maintenanceIntervalMonths(equipment, condition, task);

@@ -8,6 +8,7 @@
  */
 import { thermalPriority } from './thermal';
 import type { ThermalBasis } from './thermal';
+import { nonNegative, positive } from './guard';
 
 /** Trips below this fraction of the rating count as "well below rating" [CP]. */
 export const NUISANCE_TRIP_LOAD_FRACTION = 0.8;
@@ -47,8 +48,11 @@ export interface NuisanceTripFindings {
  * Trips below 80 % of rating together with a hot termination (NETA MTS Table 100.18 priority 1–3)
  * or a termination whose torque was found loose → suspect the termination, not the breaker [CP].
  * Trips with no load recorded are counted but not judged.
+ * @throws RangeError when ratingA is not > 0 or a trip's load is negative or not a number.
  */
 export function nuisanceTripFindings({ ratingA, trips, readings }: NuisanceTripInput): NuisanceTripFindings {
+  positive('ratingA', ratingA);
+  for (const t of trips) if (t.loadA !== undefined && t.loadA !== null) nonNegative('a trip\u2019s loadA', t.loadA);
   const limitA = NUISANCE_TRIP_LOAD_FRACTION * ratingA;
   const judged = trips.filter((t) => t.loadA !== undefined && t.loadA !== null);
   const low = judged.filter((t) => (t.loadA as number) < limitA);

@@ -6,6 +6,8 @@
  * least 40 % of normal load.
  */
 
+import { finite, positive } from './guard';
+
 export interface LoadCorrectionInput {
   /** temperature rise measured, °C */
   riseC: number;
@@ -18,19 +20,76 @@ export interface LoadCorrectionInput {
 }
 
 /**
- * Rise corrected to another load: ΔT_r = ΔT_m × (I_r / I_m)^n (Infraspection Institute, 2023;
- * n between 1.6 and 2.0, default 2 [CP]; IEC 61439-1 10.10.2.3.1 implies n ≈ 1.64).
- * @throws RangeError when measuredA ≤ 0 (a rise at no load cannot be scaled) or referenceA < 0.
+ * What the load correction did:
+ * - 'as-measured': measured at or above the reference load; the rise is never lowered [CP].
+ * - 'raised': measured between 40 % and 100 % of the reference load; raised by the square law.
+ * - 'too-light': measured under 40 % of the reference load (NFPA 70B 2023): too lightly loaded to
+ *   judge, riseC null — multiplying it up would invent a figure (2 °C at 10 % is not 200 °C).
  */
-export function loadCorrectedRiseC({
-  riseC,
-  measuredA,
-  referenceA,
-  exponent = 2,
-}: LoadCorrectionInput): number {
-  if (!(measuredA > 0)) throw new RangeError(`measuredA must be > 0, got ${measuredA}`);
-  if (!(referenceA >= 0)) throw new RangeError(`referenceA must be ≥ 0, got ${referenceA}`);
-  return riseC * (referenceA / measuredA) ** exponent;
+export interface LoadCorrection {
+  outcome: 'as-measured' | 'raised' | 'too-light';
+  /** the rise to judge, °C; null when too lightly loaded to judge */
+  riseC: number | null;
+  /** measuredA / referenceA */
+  loadFraction: number;
+  /** one sentence on what was done and why */
+  reason: string;
+}
+
+/**
+ * Load correction of a thermographic rise to the reference (normal) load.
+ *
+ * Raise only: ΔT_r = ΔT_m × (I_r / I_m)^n (Infraspection Institute, 2023; n between 1.6 and 2.0,
+ * default 2 [CP]; IEC 61439-1 10.10.2.3.1 implies n ≈ 1.64), used only for a reading taken between
+ * 40 % (NFPA 70B 2023: surveys under at least 40 % of normal load) and 100 % of the reference load.
+ * At or above the reference load the measured rise stands [CP]: a joint that is hot at high load is
+ * not made cool by arithmetic. Under 40 % the reading is too lightly loaded to judge.
+ * @throws RangeError on a non-finite rise, a measured or reference load not > 0, or an exponent
+ * outside 1–3.
+ */
+export function loadCorrection({ riseC, measuredA, referenceA, exponent = 2 }: LoadCorrectionInput): LoadCorrection {
+  finite('riseC', riseC);
+  positive('measuredA', measuredA);
+  positive('referenceA', referenceA);
+  finite('exponent', exponent);
+  if (exponent < 1 || exponent > 3) throw new RangeError(`exponent must be between 1 and 3, got ${exponent}`);
+  const loadFraction = measuredA / referenceA;
+  const pct = Math.round(100 * loadFraction);
+  if (loadFraction >= 1) {
+    return {
+      outcome: 'as-measured',
+      riseC,
+      loadFraction,
+      reason: `Measured at ${pct} % of the reference load: judged as measured (a rise is never corrected down).`,
+    };
+  }
+  if (loadFraction < THERMOGRAPHY_LOAD_MIN_FRACTION) {
+    return {
+      outcome: 'too-light',
+      riseC: null,
+      loadFraction,
+      reason:
+        `Measured at ${pct} % of the reference load, under the 40 % NFPA 70B asks for: too lightly loaded ` +
+        'to judge. Scan again under more load.',
+    };
+  }
+  return {
+    outcome: 'raised',
+    riseC: riseC * (1 / loadFraction) ** exponent,
+    loadFraction,
+    reason:
+      `Measured at ${pct} % of the reference load: raised by (I_ref / I_meas)^${exponent} ` +
+      '(Infraspection Institute square law).',
+  };
+}
+
+/**
+ * The rise to judge after {@link loadCorrection}: raised below the reference load, as measured at
+ * or above it, null when too lightly loaded to judge.
+ * @throws RangeError as loadCorrection.
+ */
+export function loadCorrectedRiseC(input: LoadCorrectionInput): number | null {
+  return loadCorrection(input).riseC;
 }
 
 /**
@@ -75,6 +134,7 @@ const BANDS: Record<ThermalBasis, readonly (readonly [number, ThermalPriorityLev
  */
 export function thermalPriority({ riseC, basis }: { riseC: number; basis: ThermalBasis }): ThermalPriority {
   if (!Number.isFinite(riseC)) throw new RangeError(`riseC must be a number, got ${riseC}`);
+  if (BANDS[basis] === undefined) throw new RangeError(`basis must be similar or ambient, got ${String(basis)}`);
   if (riseC < 1) {
     return {
       priority: null,
@@ -95,10 +155,11 @@ export const THERMOGRAPHY_LOAD_MIN_FRACTION = 0.4;
 /**
  * True when a thermographic reading was taken below 40 % of the normal load (NFPA 70B 2023), so
  * the finding should say it was taken under light load (and a rise may understate the problem).
- * @throws RangeError when normalA ≤ 0.
+ * @throws RangeError when normalA is not > 0 or measuredA is negative or not a number.
  */
 export function takenUnderLightLoad({ measuredA, normalA }: { measuredA: number; normalA: number }): boolean {
-  if (!(normalA > 0)) throw new RangeError(`normalA must be > 0, got ${normalA}`);
+  positive('normalA', normalA);
+  if (!Number.isFinite(measuredA) || measuredA < 0) throw new RangeError(`measuredA must be ≥ 0, got ${measuredA}`);
   // compare the ratio (not measured vs 0.4 × normal) so exactly 40 % is not light load
   return measuredA / normalA < THERMOGRAPHY_LOAD_MIN_FRACTION;
 }

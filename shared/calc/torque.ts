@@ -7,6 +7,7 @@
  * 1 lbf = 4.448 221 615 260 5 N, 1 in = 0.0254 m (exact), so 1 N·m = 8.850 746 lbf-in.
  */
 import type { ConductorSize } from '../domain';
+import { finite, nonNegative, positive } from './guard';
 
 export type TorqueUnit = 'N·m' | 'lbf-in' | 'lbf-ft';
 
@@ -22,24 +23,36 @@ const NM_PER_UNIT: Record<TorqueUnit, number> = {
  * Converts a torque between N·m, lbf-in and lbf-ft from the definitions of the pound-force and
  * the inch (NIST SP 811: 1 lbf = 4.448 221 615 260 5 N; 1 in = 0.0254 m), i.e.
  * 1 N·m = 8.850 746 lbf-in and 1 lbf-ft = 12 lbf-in.
+ * @throws RangeError on a negative or non-finite value, or an unknown unit.
  */
 export function convertTorque(value: number, from: TorqueUnit, to: TorqueUnit): number {
+  nonNegative('torque', value);
+  if (NM_PER_UNIT[from] === undefined || NM_PER_UNIT[to] === undefined) {
+    throw new RangeError(`torque units are N·m, lbf-in or lbf-ft, got ${String(from)} → ${String(to)}`);
+  }
   if (from === to) return value;
   return (value * NM_PER_UNIT[from]) / NM_PER_UNIT[to];
 }
 
 /**
- * UL 486A-486B columns: slotted head with slot ≤ 1.2 mm wide and ≤ 6.4 mm long; slotted wider or
- * longer; split-bolt connectors (hex head); other hex-head connectors.
+ * UL 486A-486B (NEC Informative Annex I) Table I.1 columns, by wire size: slotted head No. 10 and
+ * larger with slot ≤ 1.2 mm wide and ≤ 6.4 mm long; slotted wider or longer; split-bolt connectors
+ * (hex head); other hex-head connectors. Slotted set screws take the slotted columns.
  */
-export type ScrewKind = 'slotted-small' | 'slotted-large' | 'split-bolt' | 'hex';
+export type WireScrewKind = 'slotted-small' | 'slotted-large' | 'split-bolt' | 'hex';
+/**
+ * Every screw kind: Table I.1 by wire size; Table I.2 slotted heads smaller than No. 10 (slot
+ * under 1.2 mm wide: 'narrow', 1.2 mm and over: 'wide') by slot length; Table I.3 internal-drive
+ * socket (hex socket set screws) by socket size across flats.
+ */
+export type ScrewKind = WireScrewKind | 'slotted-under-10-narrow' | 'slotted-under-10-wide' | 'socket';
 
 /** [N·m, lbf-in] as printed (the two are each rounded, not exact conversions of one another). */
 type Printed = readonly [number, number];
 
 interface TorqueRow {
   sizes: readonly ConductorSize[];
-  values: Record<ScrewKind, Printed | null>;
+  values: Record<WireScrewKind, Printed | null>;
 }
 
 /** UL 486A-486B tightening torque (NEC Informative Annex I), 14 AWG … 350 kcmil rows. */
@@ -88,12 +101,49 @@ export interface FallbackTorque {
   basis: 'UL 486A-486B fallback';
 }
 
+/** Table I.2 slot lengths, mm ('<4': less than 4 mm). */
+export type SlotLengthMm = '<4' | '4' | '4.8' | '5.5' | '6.4';
+
 /**
- * Tightening torque from the UL 486A-486B table (NEC Informative Annex I) for a wire size and
- * screw kind — a fallback only when the maker gives no value (NEC 110.14(D)). Null where the table
- * has no entry (small slotted screws on 1 AWG and larger) or a size not on file (400, 500 kcmil).
+ * UL 486A-486B Table I.2 (NEC Informative Annex I): slotted-head screws smaller than No. 10, for
+ * 8 AWG and smaller conductors, [slot under 1.2 mm wide, 1.2 mm and wider], [N·m, lbf-in] as
+ * printed — seen in a published copy of Annex I. Longer slots (7.1 mm and over) are not on file.
  */
-export function fallbackTorque({ size, screw }: { size: ConductorSize; screw: ScrewKind }): FallbackTorque | null {
+const UL_486_SMALL_SLOTTED: Record<SlotLengthMm, readonly [Printed, Printed]> = {
+  '<4': [[0.79, 7], [1.0, 9]],
+  '4': [[0.79, 7], [1.4, 12]],
+  '4.8': [[0.79, 7], [1.4, 12]],
+  '5.5': [[0.79, 7], [1.4, 12]],
+  '6.4': [[1.0, 9], [1.4, 12]],
+};
+const SMALL_SCREW_WIRES: readonly ConductorSize[] = ['14', '12', '10', '8'];
+
+/**
+ * Tightening torque from the UL 486A-486B tables (NEC Informative Annex I) for a wire size and
+ * screw kind — a fallback only when the maker gives no value (NEC 110.14(D)). Table I.1 by wire size;
+ * slotted screws smaller than No. 10 (Table I.2, 8 AWG and smaller only) by `screwSize` = slot
+ * length; socket (Table I.3) by `screwSize` = size across flats. Null where the tables have no entry
+ * (small slotted screws on 1 AWG and larger, a size not on file, no slot length or socket size given).
+ */
+export function fallbackTorque({
+  size,
+  screw,
+  screwSize,
+}: {
+  size: ConductorSize;
+  screw: ScrewKind;
+  screwSize?: string | null;
+}): FallbackTorque | null {
+  if (screw === 'socket') {
+    return screwSize ? fallbackSocketTorque(screwSize as SocketAcrossFlatsIn) : null;
+  }
+  if (screw === 'slotted-under-10-narrow' || screw === 'slotted-under-10-wide') {
+    if (!SMALL_SCREW_WIRES.includes(size) || !screwSize) return null;
+    const row = UL_486_SMALL_SLOTTED[screwSize as SlotLengthMm];
+    if (row === undefined) return null;
+    const printed = row[screw === 'slotted-under-10-narrow' ? 0 : 1];
+    return { nm: printed[0], lbfIn: printed[1], basis: 'UL 486A-486B fallback' };
+  }
   const row = UL_486_TORQUE.find((r) => r.sizes.includes(size));
   const printed = row?.values[screw] ?? null;
   if (printed === null) return null;
@@ -141,6 +191,8 @@ export interface TorqueVerdictInput {
   /** wire size and screw kind, to compare the specified value with the UL 486A-486B table */
   size?: ConductorSize;
   screw?: ScrewKind;
+  /** slot length (slotted smaller than No. 10) or socket size across flats (socket) */
+  screwSize?: string | null;
 }
 
 export interface TorqueVerdict {
@@ -151,21 +203,63 @@ export interface TorqueVerdict {
   fallback: FallbackTorque | null;
 }
 
-/** Specified torque more than this many times the UL 486A-486B value draws a warning [CP]. */
-export const TORQUE_FAR_ABOVE_TABLE_FACTOR = 1.5;
+/**
+ * A specified value this many times the UL 486A-486B value or more (40 % above) draws a warning
+ * to check the maker's figure before tightening [CP, our threshold]: a small screw into a soft lug
+ * can strip. The maker's value still governs.
+ */
+export const TORQUE_FAR_ABOVE_TABLE_FACTOR = 1.4;
+
+/**
+ * The warning to show before tightening when a specified value is 40 % or more above the UL
+ * 486A-486B value for that screw and wire ({@link TORQUE_FAR_ABOVE_TABLE_FACTOR} [CP]); null when
+ * it is not, or the tables have no value for the screw and wire given. The maker's value still governs.
+ * @throws RangeError when specified is not a finite number > 0.
+ */
+export function makerValueWarning({
+  specified,
+  unit,
+  size,
+  screw,
+  screwSize,
+}: {
+  specified: number;
+  unit: TorqueUnit;
+  size?: ConductorSize | null;
+  screw?: ScrewKind | null;
+  screwSize?: string | null;
+}): string | null {
+  positive('specified torque', specified);
+  if (!size || !screw) return null;
+  const table = fallbackTorque({ size, screw, screwSize: screwSize ?? null });
+  if (table === null) return null;
+  const specifiedLbfIn = convertTorque(specified, unit, 'lbf-in');
+  if (specifiedLbfIn < TORQUE_FAR_ABOVE_TABLE_FACTOR * table.lbfIn - 1e-9) return null;
+  const abovePct = Math.round((100 * (specifiedLbfIn - table.lbfIn)) / table.lbfIn);
+  return (
+    `Check the maker\u2019s value: ${abovePct} % above the UL 486A-486B value for this screw ` +
+    `(${round(specified)} ${unit} against ${table.lbfIn} lbf-in, ${table.nm} N·m, for this screw and wire). ` +
+    'Confirm it before tightening: too much can strip a small screw or crush a soft lug. Where the ' +
+    'maker\u2019s instructions confirm it, their value governs.'
+  );
+}
 
 /**
  * Judges as-found and as-left torque against the specified value (NEC 110.14(D): the maker's value
  * governs). The ±10 % default window is common practice [CP], not a published limit — it is a
  * setting. Below the window is 'loose', above it 'over'; the window's edges are 'ok'.
- * Warns when the specified value is more than 1.5× the UL 486A-486B fallback for that screw and
- * wire (a soft lug can strip: confirm the maker's figure [CP]) and when the as-left value is out.
- * @throws RangeError when specified is not > 0.
+ * Warns, before tightening, when the specified value is 40 % or more above the UL 486A-486B value
+ * for that screw and wire ({@link TORQUE_FAR_ABOVE_TABLE_FACTOR}), and when the as-left value is out.
+ * @throws RangeError when specified is not a finite number > 0, asFound / asLeft is negative or
+ * not a number, or tolerancePct is negative or not a number.
  */
 export function torqueVerdict(input: TorqueVerdictInput): TorqueVerdict {
   const { specified, asLeft, unit, size, screw } = input;
   const tolerancePct = input.tolerancePct ?? 10;
-  if (!(specified > 0)) throw new RangeError(`specified torque must be > 0, got ${specified}`);
+  positive('specified torque', specified);
+  nonNegative('as-left torque', asLeft);
+  if (input.asFound !== undefined && input.asFound !== null) nonNegative('as-found torque', input.asFound);
+  nonNegative('tolerancePct', finite('tolerancePct', tolerancePct));
   const judge = (value: number): TorqueJudgement => {
     const deviationPct = (100 * (value - specified)) / specified;
     // a hair of slack so a reading exactly on the edge is not lost to rounding
@@ -174,17 +268,10 @@ export function torqueVerdict(input: TorqueVerdictInput): TorqueVerdict {
     return 'ok';
   };
   const warnings: string[] = [];
-  const fallback = size !== undefined && screw !== undefined ? fallbackTorque({ size, screw }) : null;
-  if (fallback !== null) {
-    const specifiedLbfIn = convertTorque(specified, unit, 'lbf-in');
-    if (specifiedLbfIn > TORQUE_FAR_ABOVE_TABLE_FACTOR * fallback.lbfIn) {
-      warnings.push(
-        `The specified ${round(specified)} ${unit} is far above the usual ${fallback.lbfIn} lbf-in ` +
-          `(${fallback.nm} N·m) for this screw and wire (UL 486A-486B table). Check the maker\u2019s ` +
-          'figure before tightening: too much can strip the thread or crush the lug.',
-      );
-    }
-  }
+  const fallback =
+    size !== undefined && screw !== undefined ? fallbackTorque({ size, screw, screwSize: input.screwSize ?? null }) : null;
+  const makerCheck = makerValueWarning({ specified, unit, size, screw, screwSize: input.screwSize ?? null });
+  if (makerCheck !== null) warnings.push(makerCheck);
   const asLeftJudgement = judge(asLeft);
   if (asLeftJudgement !== 'ok') {
     warnings.push(

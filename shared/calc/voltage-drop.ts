@@ -7,6 +7,7 @@
  * 210.19(A) Informational Note: 3 % on a branch circuit, 5 % feeder + branch — advice, not a rule.
  */
 import type { ConductorMaterial, ConductorSize } from '../domain';
+import { nonNegative, positive } from './guard';
 
 /** NEC Chapter 9 Table 8, Ω/kft at 75 °C. Aluminium 14 AWG is left out (not a listed size here). */
 export const TABLE_8_OHM_PER_KFT: Record<ConductorMaterial, Partial<Record<ConductorSize, number>>> = {
@@ -83,14 +84,13 @@ export interface VoltageDrop {
  * (out and back), √3·R·I·L / 1000 three-phase, L one-way in feet, R in Ω/kft. Resistance only
  * (reactance ignored, good for small conductors at unity power factor [CP]). Null for a size with
  * no Table 8 entry on file.
- * @throws RangeError when volts ≤ 0 or amps / length are negative.
+ * @throws RangeError when volts is not > 0 or amps / length are negative, or any is not a finite number.
  */
 export function voltageDrop(input: VoltageDropInput): VoltageDrop | null {
   const { size, material, amps, lengthFt, volts, phases } = input;
-  if (!(volts > 0)) throw new RangeError(`volts must be > 0, got ${volts}`);
-  if (!(amps >= 0) || !(lengthFt >= 0)) {
-    throw new RangeError('amps and lengthFt must be ≥ 0');
-  }
+  positive('volts', volts);
+  nonNegative('amps', amps);
+  nonNegative('lengthFt', lengthFt);
   const ohmPerKft = resistanceOhmPerKft(size, material);
   if (ohmPerKft === null) return null;
   const factor = phases === 3 ? Math.sqrt(3) : 2;

@@ -16,6 +16,7 @@ import type {
   PanelSystem,
 } from '../domain';
 import { conductorCheck, smallConductorLimitA } from './conductors';
+import { nonNegative, positive } from './guard';
 import { directoryWarnings } from './directory';
 import type { DirectoryWarningCode } from './directory';
 import { phaseOf } from './layout';
@@ -53,12 +54,17 @@ export interface WarningCircuit {
   lengthFt: number | null;
   /** optional: motor and HVAC circuits are sized by NEC Articles 430/440, so conductor checks soften */
   loadKind?: LoadKind | null;
+  /** this breaker's termination rating when it differs from the panel's; null/absent: the panel's */
+  terminationTempC?: InsulationTempC | null;
 }
 
 export interface WarningPanel {
   system: PanelSystem;
-  /** termination temperature rating; 75 °C when not given (most modern panelboards [CP]) */
-  terminalTempC?: InsulationTempC;
+  /**
+   * the rating the panel's terminations are listed and marked for; null/absent when not known, and
+   * then NEC 110.14(C)(1) applies (60 °C for 100 A or less or 14–1 AWG)
+   */
+  terminationTempC?: InsulationTempC | null;
 }
 
 /** Continuous load may use at most this fraction of the rating (1 / 1.25, NEC 210.20(A)). */
@@ -69,8 +75,13 @@ export const CONTINUOUS_LOAD_MAX_FRACTION = 0.8;
  * gets no conductor or load checks. Motor and HVAC circuits (loadKind 'motor' / 'hvac') get the
  * conductor findings as 'info': NEC 240.4(G) sends them to Articles 430/440 (from memory), where a
  * breaker larger than the wire's ampacity can be correct.
+ * @throws RangeError when the rating is not > 0 or the load or length is negative, or any of them
+ * is not a finite number.
  */
 export function circuitWarnings(circuit: WarningCircuit, panel: WarningPanel): CircuitWarning[] {
+  if (circuit.ratingA !== null) positive('ratingA', circuit.ratingA);
+  if (circuit.loadVA !== null) nonNegative('loadVA', circuit.loadVA);
+  if (circuit.lengthFt !== null) nonNegative('lengthFt', circuit.lengthFt);
   const warnings: CircuitWarning[] = [];
   const { system } = panel;
   const info = SYSTEM_INFO[system];
@@ -95,7 +106,7 @@ export function circuitWarnings(circuit: WarningCircuit, panel: WarningPanel): C
           size,
           material,
           insulationTempC: circuit.insulationTempC,
-          terminalTempC: panel.terminalTempC,
+          terminalTempC: circuit.terminationTempC ?? panel.terminationTempC ?? null,
         });
         if (check.ampacityA === null) {
           warnings.push({
@@ -109,7 +120,7 @@ export function circuitWarnings(circuit: WarningCircuit, panel: WarningPanel): C
             severity: conductorSeverity,
             message:
               `${wire} is too small for a ${ratingA} A breaker: it is good for ${check.ampacityA} A ` +
-              `at ${check.tempC} °C (NEC Table 310.16)` +
+              `at ${check.tempC} °C (NEC Table 310.16; ${check.terminationBasis})` +
               (check.nextSizeUpApplied ? `, so ${check.allowedByAmpacityA} A at most with the next size up (240.4(B))` : '') +
               '. Fit a smaller breaker or a larger wire.' + motorNote,
           });

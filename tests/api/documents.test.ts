@@ -220,7 +220,13 @@ describe('GET /api/inspections/:id/report.pdf', () => {
     assert.ok(text.includes('Signed off by Marisol Fenwright'), 'sign-off name');
     assert.ok(!text.includes('NOT SIGNED'));
     assert.ok(text.includes('Panel load'));
-    assert.ok(text.includes('NEC 215.3'), 'the load basis');
+    assert.ok(text.includes('210.20(A)') && text.includes('215.3'), 'the load basis');
+    // each load figure named for what it is, with its rule (issue 13 item 6): the sizing figure
+    // adds 125 % of continuous loads, so it is not called "demand"
+    assert.match(text, /Connected load \d/);
+    assert.match(text, /Sizing load \d/);
+    assert.ok(text.includes('125 % of continuous + non-continuous'), 'the sizing rule');
+    assert.doesNotMatch(text, /· demand \d|phase demand/);
     assert.ok(text.includes(squash(SAFETY_CAUTION)), 'the safety caution, whole');
   });
 

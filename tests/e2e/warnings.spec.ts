@@ -40,3 +40,16 @@ test('the schedule header shows phase loading, with the numbers behind a tap', a
   await problems.getByRole('link', { name: /^Position 31:/ }).click();
   await expect(page.getByTestId('circuit-warnings')).toContainText('%');
 });
+
+test('the older load centre, its termination rating not recorded, flags the range at 60 °C (NEC 110.14(C)(1)(a)); the panel header names its load figures', async ({ page }) => {
+  await signIn(page, 'electrician');
+  await openPanel(page, 'Wrenfold Cottage', 'LC-1');
+  // the demo's range: a 50 A breaker on 8 AWG copper, good for 40 A in the 60 °C column
+  const row = page.getByTestId('position-1');
+  await expect(row.getByTestId('circuit-warning')).toContainText('40 A at 60 °C');
+  await expect(page.getByTestId('panel-problems')).toContainText('Range');
+  const load = page.getByTestId('panel-load');
+  await expect(load.getByTestId('load-connected')).toContainText('Connected load');
+  await expect(load.getByTestId('load-sizing')).toContainText('Sizing load');
+  await expect(load).not.toContainText('Demand');
+});

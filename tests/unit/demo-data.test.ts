@@ -20,6 +20,7 @@ import {
   SYSTEM_INFO,
   type ConductorSize,
 } from '../../shared/domain';
+import { circuitWarnings } from '../../shared/calc';
 
 const panels: DemoPanel[] = DEMO_BUILDINGS.flatMap((b) => b.panels);
 const circuits: { panel: DemoPanel; c: DemoCircuit }[] = panels.flatMap((panel) =>
@@ -46,6 +47,12 @@ const AMPACITY_75: Record<'Cu' | 'Al', Partial<Record<ConductorSize, number>>> =
     '12': 20, '10': 30, '8': 40, '6': 50, '4': 65, '3': 75, '2': 90, '1': 100, '1/0': 120,
     '2/0': 135, '3/0': 155, '4/0': 180, '250': 205, '300': 230, '350': 250, '400': 270, '500': 310,
   },
+};
+// NEC Table 310.16, 60 °C column (the sizes the demo uses), for terminations not recorded:
+// NEC 110.14(C)(1)(a) takes 60 °C for circuits of 100 A or less.
+const AMPACITY_60: Record<'Cu' | 'Al', Partial<Record<ConductorSize, number>>> = {
+  Cu: { '14': 15, '12': 20, '10': 30, '8': 40, '6': 55, '4': 70, '3': 85, '2': 95, '1': 110 },
+  Al: { '12': 15, '10': 25, '8': 35, '6': 40, '4': 55, '3': 65, '2': 75, '1': 85 },
 };
 // NEC 240.4(D) small-conductor limits.
 const SMALL_LIMIT: Record<'Cu' | 'Al', Partial<Record<ConductorSize, number>>> = {
@@ -213,7 +220,8 @@ describe('demo scenario', () => {
       if (c.status !== 'in-use' || c.ratingA == null) continue;
       const l = label(panel, c);
       assert.ok(c.conductorSize && c.conductorMaterial && c.insulationTempC, `${l} conductor`);
-      const amp = AMPACITY_75[c.conductorMaterial][c.conductorSize];
+      const sixty = (c.terminationTempC ?? panel.terminationTempC) === null && c.ratingA <= 100;
+      const amp = (sixty ? AMPACITY_60 : AMPACITY_75)[c.conductorMaterial][c.conductorSize];
       assert.ok(amp, `${l} size in table`);
       const small = SMALL_LIMIT[c.conductorMaterial][c.conductorSize];
       // 240.4(D) caps small conductors; otherwise 240.4(B) allows the next standard rating up.
@@ -226,7 +234,7 @@ describe('demo scenario', () => {
       const vd = voltageDropPct(panel, c);
       if (vd != null && vd > 3) highDrop.push(`${l} ${vd.toFixed(1)} %`);
     }
-    assert.deepEqual(wrongConductor, ['clinic-LB pos 13 "Break room microwave"']);
+    assert.deepEqual(wrongConductor, ['clinic-LB pos 13 "Break room microwave"', 'cottage-LC1 pos 1 "Range (2-pole)"']);
     assert.deepEqual(overloaded, []);
     assert.equal(highDrop.length, 1, highDrop.join('; '));
     assert.match(highDrop[0]!, /^clinic-LA pos 31 "Monument sign & drive lights" 7\.\d %$/);
@@ -235,6 +243,18 @@ describe('demo scenario', () => {
     assert.deepEqual(vague.map(({ panel, c }) => label(panel, c)), ['lofts-1LA pos 25 "misc"']);
     const named = circuits.filter(({ c }) => /\b[A-Z][a-z]+'s\b/.test(c.description));
     assert.deepEqual(named.map(({ panel, c }) => label(panel, c)), [`clinic-LA pos 27 "Dana's office"`]);
+  });
+
+  it('the older load centre LC-1 raises the 60 °C termination warning through the shared check (NEC 110.14(C)(1)(a) [V])', () => {
+    const lc1 = panels.find((p) => p.key === 'cottage-LC1');
+    assert.ok(lc1);
+    const range = lc1.circuits.find((c) => c.position === 1);
+    assert.ok(range);
+    const warnings = circuitWarnings(range, lc1);
+    assert.deepEqual(warnings.map((w) => w.code), ['conductor-too-small']);
+    assert.match(warnings[0].message, /40 A at 60 °C/);
+    // the same circuit with terminations marked 75 °C would be fine: the panel's record decides
+    assert.deepEqual(circuitWarnings(range, { ...lc1, terminationTempC: 75 }), []);
   });
 
   it('has the four demo users, one per role', () => {

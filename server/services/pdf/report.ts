@@ -7,8 +7,8 @@
 import type { Readable } from 'node:stream';
 import sharp from 'sharp';
 import { In, IsNull, type DataSource } from 'typeorm';
-import { assessReading, type Assessment } from '../../../shared/assess';
-import { SAFETY_CAUTION, panelLoad } from '../../../shared/calc';
+import { assessReading, isJudged, type Assessment } from '../../../shared/assess';
+import { PANEL_LOAD_FIGURES, SAFETY_CAUTION, panelLoad } from '../../../shared/calc';
 import { SYSTEM_INFO } from '../../../shared/domain';
 import {
   INSPECTION_KIND_LABELS,
@@ -118,7 +118,8 @@ function measured(r: Reading): string | null {
 }
 
 function verdictWords(a: Assessment): string {
-  return a.priority ? PRIORITY_LABELS[a.priority] : 'No action';
+  if (a.priority) return PRIORITY_LABELS[a.priority];
+  return isJudged(a) ? 'No action' : 'Not judged';
 }
 
 /** Priority or verdict as a coloured tag followed by its word (never colour alone). */
@@ -231,6 +232,7 @@ export async function inspectionReportPdf(
     tagLine(doc, verdictWords(a), a.priority ? PRIORITY_COLOURS[a.priority] : SOFT, a.summary);
     if (a.kind === 'thermal' && a.priority) doc.font(FONT.text).fontSize(9.5).fillColor(INK).text(`Action: ${a.action}`, { width });
     if (a.kind === 'thermal') for (const note of a.notes) doc.font(FONT.text).fontSize(9).fillColor(SOFT).text(note, { width });
+    if (a.kind === 'torque') for (const w of a.verdict.warnings) doc.font(FONT.text).fontSize(9).fillColor(INK).text(w, { width });
     doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(`Basis: ${a.basis}`, { width });
     if (r.notes) doc.font(FONT.text).fontSize(9).fillColor(INK).text(`Note: ${r.notes}`, { width });
     doc.moveDown(0.6);
@@ -295,13 +297,18 @@ export async function inspectionReportPdf(
       .join(' · ');
     doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(`Panel ${panel.tag} — ${printable(SYSTEM_INFO[panel.system].label)}`, MARGIN, doc.y, { width });
     doc.font(FONT.mono).fontSize(9).fillColor(INK)
-      .text(`Connected ${(load.totalVA / 1000).toFixed(1)} kVA · demand ${(load.demandVA / 1000).toFixed(1)} kVA · per phase ${phases}`, { width })
       .text(
-        `Worst phase demand ${load.utilisationPct === null ? 'n/a' : `${load.utilisationPct.toFixed(0)} %`} of ${load.capacityA ?? '—'} A · imbalance ${load.imbalancePct.toFixed(0)} %`,
+        `${PANEL_LOAD_FIGURES.connected.label} ${(load.totalVA / 1000).toFixed(1)} kVA · ${PANEL_LOAD_FIGURES.sizing.label} ` +
+          `${(load.sizingVA / 1000).toFixed(1)} kVA · per phase ${phases}`,
+        { width },
+      )
+      .text(
+        `Worst phase sizing current ${load.utilisationPct === null ? 'n/a' : `${load.utilisationPct.toFixed(0)} %`} of ${load.capacityA ?? '—'} A · imbalance ${load.imbalancePct.toFixed(0)} %`,
         { width },
       );
     doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(
-      'Continuous loads at 125 % plus the rest at 100 % (NEC 215.3 / 210.20(A)); imbalance as NEMA MG 1 defines it. ' +
+      `${PANEL_LOAD_FIGURES.connected.label}: ${PANEL_LOAD_FIGURES.connected.rule}. ${PANEL_LOAD_FIGURES.sizing.label}: ` +
+        `${PANEL_LOAD_FIGURES.sizing.rule}; not an NEC 220 demand load. Imbalance as NEMA MG 1 defines it. ` +
         'Only circuits with a recorded load count.',
       { width },
     );

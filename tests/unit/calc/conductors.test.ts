@@ -96,26 +96,27 @@ describe('conductorCheck — NEC Table 310.16, 110.14(C), 240.4(B), 240.4(D) [V]
     nextSizeUp?: boolean;
     reasons: number;
   }[] = [
-    { source: '240.4(D): 12 Cu limited to 20 A though 25 A at 75 °C', input: { ratingA: 20, size: '12', material: 'Cu', insulationTempC: 90 }, ok: true, allowedA: 20, reasons: 0 },
-    { source: '240.4(D): 12 Cu on 25 A fails', input: { ratingA: 25, size: '12', material: 'Cu', insulationTempC: 90 }, ok: false, allowedA: 20, reasons: 1 },
-    { source: 'Table 310.16 + 240.4(D): 12 Cu on 30 A fails twice', input: { ratingA: 30, size: '12', material: 'Cu', insulationTempC: 90 }, ok: false, allowedA: 20, reasons: 2 },
-    { source: '240.4(D): 14 Cu 15 A', input: { ratingA: 15, size: '14', material: 'Cu', insulationTempC: 90 }, ok: true, allowedA: 15, reasons: 0 },
-    { source: 'Table 310.16 60 °C: 10 Cu on 30 A', input: { ratingA: 30, size: '10', material: 'Cu', insulationTempC: 60 }, ok: true, allowedA: 30, reasons: 0 },
+    // terminations marked 75 °C unless the row says otherwise (NEC 110.14(C)(1)(a)(3))
+    { source: '240.4(D): 12 Cu limited to 20 A though 25 A at 75 °C', input: { ratingA: 20, size: '12', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: true, allowedA: 20, reasons: 0 },
+    { source: '240.4(D): 12 Cu on 25 A fails', input: { ratingA: 25, size: '12', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: false, allowedA: 20, reasons: 1 },
+    { source: 'Table 310.16 + 240.4(D): 12 Cu on 30 A fails twice', input: { ratingA: 30, size: '12', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: false, allowedA: 20, reasons: 2 },
+    { source: '240.4(D): 14 Cu 15 A', input: { ratingA: 15, size: '14', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: true, allowedA: 15, reasons: 0 },
+    { source: 'Table 310.16 60 °C: 10 Cu on 30 A', input: { ratingA: 30, size: '10', material: 'Cu', insulationTempC: 60, terminalTempC: 75 }, ok: true, allowedA: 30, reasons: 0 },
     { source: '110.14(C): 60 °C terminals, 10 Cu 90 °C wire → 30 A', input: { ratingA: 30, size: '10', material: 'Cu', insulationTempC: 90, terminalTempC: 60 }, ok: true, allowedA: 30, reasons: 0 },
-    { source: 'Table 310.16 75 °C: 8 Cu 50 A', input: { ratingA: 50, size: '8', material: 'Cu', insulationTempC: 75 }, ok: true, allowedA: 50, reasons: 0 },
-    { source: 'Table 310.16 75 °C: 8 Cu on 60 A fails', input: { ratingA: 60, size: '8', material: 'Cu', insulationTempC: 90 }, ok: false, allowedA: 50, reasons: 1 },
-    { source: 'lower of insulation and terminal: 8 Cu 60 °C insulation → 40 A', input: { ratingA: 45, size: '8', material: 'Cu', insulationTempC: 60 }, ok: false, allowedA: 40, reasons: 1 },
-    { source: '240.4(B): 6 Cu 65 A → 70 A device', input: { ratingA: 70, size: '6', material: 'Cu', insulationTempC: 90 }, ok: true, allowedA: 70, nextSizeUp: true, reasons: 0 },
-    { source: '240.4(B): 6 Cu on 80 A fails', input: { ratingA: 80, size: '6', material: 'Cu', insulationTempC: 90 }, ok: false, allowedA: 70, nextSizeUp: true, reasons: 1 },
-    { source: 'Table 310.16: 3 Cu 100 A is standard, no next size', input: { ratingA: 110, size: '3', material: 'Cu', insulationTempC: 75 }, ok: false, allowedA: 100, nextSizeUp: false, reasons: 1 },
-    { source: '240.4(B): 1/0 Al 120 A → 125 A', input: { ratingA: 125, size: '1/0', material: 'Al', insulationTempC: 75 }, ok: true, allowedA: 125, nextSizeUp: true, reasons: 0 },
-    { source: '240.4(B): 4/0 Al 180 A → 200 A', input: { ratingA: 200, size: '4/0', material: 'Al', insulationTempC: 90 }, ok: true, allowedA: 200, nextSizeUp: true, reasons: 0 },
-    { source: '240.4(B): 250 Cu 255 A → 300 A', input: { ratingA: 300, size: '250', material: 'Cu', insulationTempC: 75 }, ok: true, allowedA: 300, nextSizeUp: true, reasons: 0 },
-    { source: '240.4(B): 250 Cu on 350 A fails', input: { ratingA: 350, size: '250', material: 'Cu', insulationTempC: 75 }, ok: false, allowedA: 300, reasons: 1 },
-    { source: '240.4(B): 500 Cu 380 A → 400 A', input: { ratingA: 400, size: '500', material: 'Cu', insulationTempC: 90 }, ok: true, allowedA: 400, nextSizeUp: true, reasons: 0 },
+    { source: 'Table 310.16 75 °C: 8 Cu 50 A', input: { ratingA: 50, size: '8', material: 'Cu', insulationTempC: 75, terminalTempC: 75 }, ok: true, allowedA: 50, reasons: 0 },
+    { source: 'Table 310.16 75 °C: 8 Cu on 60 A fails', input: { ratingA: 60, size: '8', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: false, allowedA: 50, reasons: 1 },
+    { source: 'lower of insulation and terminal: 8 Cu 60 °C insulation → 40 A', input: { ratingA: 45, size: '8', material: 'Cu', insulationTempC: 60, terminalTempC: 75 }, ok: false, allowedA: 40, reasons: 1 },
+    { source: '240.4(B): 6 Cu 65 A → 70 A device', input: { ratingA: 70, size: '6', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: true, allowedA: 70, nextSizeUp: true, reasons: 0 },
+    { source: '240.4(B): 6 Cu on 80 A fails', input: { ratingA: 80, size: '6', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: false, allowedA: 70, nextSizeUp: true, reasons: 1 },
+    { source: 'Table 310.16: 3 Cu 100 A is standard, no next size', input: { ratingA: 110, size: '3', material: 'Cu', insulationTempC: 75, terminalTempC: 75 }, ok: false, allowedA: 100, nextSizeUp: false, reasons: 1 },
+    { source: '240.4(B): 1/0 Al 120 A → 125 A', input: { ratingA: 125, size: '1/0', material: 'Al', insulationTempC: 75, terminalTempC: 75 }, ok: true, allowedA: 125, nextSizeUp: true, reasons: 0 },
+    { source: '240.4(B): 4/0 Al 180 A → 200 A', input: { ratingA: 200, size: '4/0', material: 'Al', insulationTempC: 90, terminalTempC: 75 }, ok: true, allowedA: 200, nextSizeUp: true, reasons: 0 },
+    { source: '240.4(B): 250 Cu 255 A → 300 A', input: { ratingA: 300, size: '250', material: 'Cu', insulationTempC: 75, terminalTempC: 75 }, ok: true, allowedA: 300, nextSizeUp: true, reasons: 0 },
+    { source: '240.4(B): 250 Cu on 350 A fails', input: { ratingA: 350, size: '250', material: 'Cu', insulationTempC: 75, terminalTempC: 75 }, ok: false, allowedA: 300, reasons: 1 },
+    { source: '240.4(B): 500 Cu 380 A → 400 A', input: { ratingA: 400, size: '500', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }, ok: true, allowedA: 400, nextSizeUp: true, reasons: 0 },
     { source: '90 °C terminals allowed when given: 4 Cu 95 A → 100 A', input: { ratingA: 100, size: '4', material: 'Cu', insulationTempC: 90, terminalTempC: 90 }, ok: true, allowedA: 100, nextSizeUp: true, reasons: 0 },
-    { source: '240.4(D) Al: 10 Al on 30 A fails (25 A limit)', input: { ratingA: 30, size: '10', material: 'Al', insulationTempC: 75 }, ok: false, allowedA: 25, reasons: 1 },
-    { source: 'Table 310.16 lists no Al 14 AWG', input: { ratingA: 15, size: '14', material: 'Al', insulationTempC: 75 }, ok: false, allowedA: null, reasons: 1 },
+    { source: '240.4(D) Al: 10 Al on 30 A fails (25 A limit)', input: { ratingA: 30, size: '10', material: 'Al', insulationTempC: 75, terminalTempC: 75 }, ok: false, allowedA: 25, reasons: 1 },
+    { source: 'Table 310.16 lists no Al 14 AWG', input: { ratingA: 15, size: '14', material: 'Al', insulationTempC: 75, terminalTempC: 75 }, ok: false, allowedA: null, reasons: 1 },
   ];
   for (const row of rows) {
     it(row.source, () => {
@@ -126,8 +127,10 @@ describe('conductorCheck — NEC Table 310.16, 110.14(C), 240.4(B), 240.4(D) [V]
       if (row.nextSizeUp !== undefined) assert.equal(result.nextSizeUpApplied, row.nextSizeUp);
     });
   }
-  it('uses 75 °C terminals by default [CP: most modern panelboards are marked 75 °C]', () => {
-    assert.equal(conductorCheck({ ratingA: 20, size: '10', material: 'Cu', insulationTempC: 90 }).tempC, 75);
+  it('unknown terminations follow NEC 110.14(C)(1) [V]: 60 °C at 100 A or less or 14–1 AWG, else 75 °C (no longer 75 °C by default)', () => {
+    assert.equal(conductorCheck({ ratingA: 20, size: '10', material: 'Cu', insulationTempC: 90 }).tempC, 60);
     assert.equal(conductorCheck({ ratingA: 20, size: '10', material: 'Cu', insulationTempC: 60 }).tempC, 60);
+    assert.equal(conductorCheck({ ratingA: 20, size: '10', material: 'Cu', insulationTempC: 90, terminalTempC: 75 }).tempC, 75);
+    assert.equal(conductorCheck({ ratingA: 150, size: '1/0', material: 'Cu', insulationTempC: 90 }).tempC, 75);
   });
 });

@@ -135,8 +135,8 @@ describe('panelLoad — phase loading by standard numbering [CP]; 125 % continuo
     close(result.phases.B.amps, 40);
     assert.equal(result.totalVA, 8400);
     close(result.imbalancePct, (100 * 5) / 35); // avg 35 A, deviation 5 A
-    assert.equal(result.demandVA, 1200 * 1.25 + 2400 + 4800);
-    close(result.phases.A.demandA, 32.5);
+    assert.equal(result.sizingVA, 1200 * 1.25 + 2400 + 4800);
+    close(result.phases.A.sizingA, 32.5);
     close(result.utilisationPct ?? Number.NaN, 80); // worst 40 A over the 50 A main (< 100 A bus)
     assert.deepEqual(result.byLoadKindVA, { lighting: 1200, receptacles: 2400, appliance: 4800 });
   });
@@ -183,8 +183,8 @@ describe('panelLoad — phase loading by standard numbering [CP]; 125 % continuo
       for (const circuits of [[], [c(1, 1, null), c(2, 2, 0)]]) {
         const result = panelLoad({ system, busRatingA: 100 }, circuits);
         const numbers = [
-          result.totalVA, result.imbalancePct, result.demandVA, result.utilisationPct ?? -1,
-          ...Object.values(result.phases).flatMap((p) => [p.va, p.amps, p.demandVA, p.demandA]),
+          result.totalVA, result.imbalancePct, result.sizingVA, result.utilisationPct ?? -1,
+          ...Object.values(result.phases).flatMap((p) => [p.va, p.amps, p.sizingVA, p.sizingA]),
         ];
         assert.ok(numbers.every((n) => Number.isFinite(n)), `${system}: ${numbers}`);
         assert.equal(result.totalVA, 0);
@@ -195,12 +195,13 @@ describe('panelLoad — phase loading by standard numbering [CP]; 125 % continuo
     }
   });
 
-  it('main lugs only uses the bus; a main larger than the bus is limited by the bus; no rating → null', () => {
+  it('main lugs only uses the bus; a main larger than the bus is limited by the bus; a zero rating is refused', () => {
     const circuits = [c(1, 1, 2400)]; // 20 A on A
     close(panelLoad({ system: '120/240V-1ph-3w', busRatingA: 100 }, circuits).utilisationPct ?? Number.NaN, 20);
     close(panelLoad({ system: '120/240V-1ph-3w', mainRatingA: null, busRatingA: 100 }, circuits).utilisationPct ?? Number.NaN, 20);
     close(panelLoad({ system: '120/240V-1ph-3w', mainRatingA: 200, busRatingA: 100 }, circuits).utilisationPct ?? Number.NaN, 20);
-    assert.equal(panelLoad({ system: '120/240V-1ph-3w', busRatingA: 0 }, circuits).utilisationPct, null);
+    // a bus rating of 0 is not a rating: refused (DEVELOPERS.md "Bad input"), no longer a null utilisation
+    assert.throws(() => panelLoad({ system: '120/240V-1ph-3w', busRatingA: 0 }, circuits), RangeError);
   });
 
   it('skips circuits layout would reject (bad poles, 3-pole on 1φ, position 0) and counts them', () => {
@@ -218,14 +219,14 @@ describe('panelLoad — phase loading by standard numbering [CP]; 125 % continuo
     continuous: fc.boolean(),
     loadKind: fc.constantFrom<LoadKind>('lighting', 'receptacles', 'motor'),
   });
-  it('property: phase VA sums to totalVA; demand ≥ connected; scaling every load leaves imbalance unchanged', () => {
+  it('property: phase VA sums to totalVA; sizing ≥ connected; scaling every load leaves imbalance unchanged', () => {
     fc.assert(
       fc.property(fc.constantFrom(...SYSTEMS), fc.array(circuitArb, { maxLength: 12 }), fc.double({ min: 0.1, max: 10, noNaN: true }), (system, circuits, k) => {
         const valid = circuits.filter((x) => x.poles < 3 || SYSTEM_INFO[system].phases === 3);
         const result = panelLoad({ system, busRatingA: 225 }, valid);
         const phaseSum = Object.values(result.phases).reduce((s, p) => s + p.va, 0);
         close(phaseSum, result.totalVA, 1e-9);
-        assert.ok(result.demandVA >= result.totalVA - 1e-9);
+        assert.ok(result.sizingVA >= result.totalVA - 1e-9);
         const scaled = panelLoad({ system, busRatingA: 225 }, valid.map((x) => ({ ...x, loadVA: x.loadVA * k })));
         close(scaled.imbalancePct, result.imbalancePct, 1e-7);
       }),

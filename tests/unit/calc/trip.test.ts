@@ -56,7 +56,14 @@ describe('tripBand — log–log interpolation of a time-current band [CP]', () 
       }),
       { minLength: 2, maxLength: 6 },
     )
-    .map((raw) => raw.map((p) => ({ multiple: p.multiple, minS: p.minS, maxS: p.minS * p.ratio })))
+    // an inverse-time band: both times fall (or stay) as the multiple rises (a rise is refused)
+    .map((raw) => {
+      const multiples = raw.map((p) => p.multiple).sort((a, b) => a - b);
+      const mins = raw.map((p) => p.minS).sort((a, b) => b - a);
+      const points = multiples.map((multiple, i) => ({ multiple, minS: mins[i], maxS: mins[i] * raw[i].ratio }));
+      for (let i = points.length - 2; i >= 0; i -= 1) points[i].maxS = Math.max(points[i].maxS, points[i + 1].maxS);
+      return points;
+    })
     .filter((points) => new Set(points.map((p) => p.multiple)).size === points.length);
 
   it('property: interpolation stays inside the band (between the neighbouring points, min ≤ max)', () => {

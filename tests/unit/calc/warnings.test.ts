@@ -18,7 +18,8 @@ const base: WarningCircuit = {
   insulationTempC: 90,
   lengthFt: 50,
 };
-const panel208 = { system: '208Y/120V-3ph-4w' as PanelSystem };
+// terminations listed and marked 75 °C unless a test says otherwise (NEC 110.14(C)(1)(a)(3))
+const panel208 = { system: '208Y/120V-3ph-4w' as PanelSystem, terminationTempC: 75 as const };
 
 describe('circuitWarnings — NEC Table 310.16, 240.4(B)/(D), 210.20(A), 210.19(A) note, 408.4(A)', () => {
   const rows: { name: string; circuit: Partial<WarningCircuit>; system?: PanelSystem; codes: string[] }[] = [
@@ -51,7 +52,7 @@ describe('circuitWarnings — NEC Table 310.16, 240.4(B)/(D), 210.20(A), 210.19(
   ];
   for (const row of rows) {
     it(row.name, () => {
-      const warnings = circuitWarnings({ ...base, ...row.circuit }, { system: row.system ?? panel208.system });
+      const warnings = circuitWarnings({ ...base, ...row.circuit }, { system: row.system ?? panel208.system, terminationTempC: 75 });
       assert.deepEqual(warnings.map((w) => w.code), row.codes);
       for (const w of warnings) {
         assert.ok(w.severity === 'warning' || w.severity === 'info');
@@ -72,12 +73,14 @@ describe('circuitWarnings — NEC Table 310.16, 240.4(B)/(D), 210.20(A), 210.19(
     const [drop] = circuitWarnings({ ...base, loadVA: 1920, lengthFt: 100 }, panel208);
     assert.match(drop.message, /5\.3 %/);
   });
-  it('75 °C terminals by default; a panel marked 60 °C tightens the check (110.14(C), from memory)', () => {
+  it('a panel marked 75 °C; marked 60 °C or not recorded tightens the check (NEC 110.14(C)(1)(a) [V])', () => {
     const circuit = { ...base, ratingA: 30, conductorSize: '10' as const, insulationTempC: 90 as const, loadVA: null };
     assert.deepEqual(circuitWarnings(circuit, panel208), []);
     const sixAwg = { ...circuit, ratingA: 70, conductorSize: '6' as const };
     assert.deepEqual(circuitWarnings(sixAwg, panel208), []); // 65 A → 70 A by 240.4(B)
-    assert.deepEqual(circuitWarnings(sixAwg, { ...panel208, terminalTempC: 60 }).map((w) => w.code), ['conductor-too-small']);
+    assert.deepEqual(circuitWarnings(sixAwg, { ...panel208, terminationTempC: 60 }).map((w) => w.code), ['conductor-too-small']);
+    // not recorded: 60 °C for 100 A or less (was 75 °C by default)
+    assert.deepEqual(circuitWarnings(sixAwg, { system: panel208.system }).map((w) => w.code), ['conductor-too-small']);
   });
 });
 
