@@ -7,6 +7,7 @@ import type { DataSource } from 'typeorm';
 import { authRouter, meRouter } from './auth/routes';
 import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
+import { DB_CONNECT_TIMEOUT_MS, guardPool } from './db-health';
 import { errorHandler } from './http/error-handler';
 import { requestLog } from './http/request-log';
 import { accessRouter } from './routes/access';
@@ -58,7 +59,12 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
     }
   });
 
-  const sessionPool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 4 });
+  // its own small pool, with an 'error' listener: without one a connection dropped by a database
+  // restart ends the process (server/db-health.ts)
+  const sessionPool = guardPool(
+    new pg.Pool({ connectionString: config.DATABASE_URL, max: 4, connectionTimeoutMillis: DB_CONNECT_TIMEOUT_MS }),
+    'session',
+  );
   // a full push (500 mutations) can pass 2 MB; its body is read here and skipped by the next parser
   app.use('/api/sync', express.json({ limit: '5mb' }));
   app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET));

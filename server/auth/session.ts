@@ -4,6 +4,7 @@ import session from 'express-session';
 import type pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { UnauthorisedError } from '../http/errors';
+import { logger } from '../logger';
 import { loadActor, type Actor } from './access';
 
 declare module 'express-session' {
@@ -23,7 +24,13 @@ const THIRTY_DAYS_MS = 30 * 24 * 3600 * 1000;
 export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler {
   const PgStore = connectPgSimple(session);
   return session({
-    store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false }),
+    // a store error reaches the error handler through next(); its own log goes to ours, not stderr
+    store: new PgStore({
+      pool,
+      tableName: 'session',
+      createTableIfMissing: false,
+      errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(' ') }, 'session store error'),
+    }),
     name: 'ampwright.sid',
     secret,
     resave: false,
