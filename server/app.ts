@@ -5,10 +5,11 @@ import helmet from 'helmet';
 import pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { authRouter, meRouter } from './auth/routes';
-import { sessionMiddleware } from './auth/session';
+import { cookieSecure, sessionMiddleware } from './auth/session';
 import type { Config } from './config';
 import { DB_CONNECT_TIMEOUT_MS, guardPool } from './db-health';
 import { errorHandler } from './http/error-handler';
+import type { LimitConfig } from './http/rate-limits';
 import { requestLog } from './http/request-log';
 import { accessRouter } from './routes/access';
 import { documentsRouter } from './routes/documents';
@@ -22,7 +23,10 @@ import { PhotoStore, type PhotoStoreConfig } from './services/photo-store';
 
 export interface AppDeps {
   dataSource: DataSource;
-  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY' | 'PUBLIC_URL'> & PhotoStoreConfig & MailConfig;
+  config: Pick<Config, 'NODE_ENV' | 'DATABASE_URL' | 'SESSION_SECRET' | 'TRUST_PROXY' | 'COOKIE_SECURE' | 'PUBLIC_URL'> &
+    LimitConfig &
+    PhotoStoreConfig &
+    MailConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
 }
@@ -67,8 +71,8 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   );
   // a full push (500 mutations) can pass 2 MB; its body is read here and skipped by the next parser
   app.use('/api/sync', express.json({ limit: '5mb' }));
-  app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET));
-  app.use('/api/auth', authRouter(dataSource, config.SIGN_IN_LIMIT));
+  app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET, cookieSecure(config)));
+  app.use('/api/auth', authRouter(dataSource, config));
   app.use('/api', meRouter(dataSource));
   // before the register router, whose requireUser would otherwise load the actor a second time
   // (and so are the photos)

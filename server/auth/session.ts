@@ -3,6 +3,7 @@ import type { RequestHandler } from 'express';
 import session from 'express-session';
 import type pg from 'pg';
 import type { DataSource } from 'typeorm';
+import type { Config } from '../config';
 import { UnauthorisedError } from '../http/errors';
 import { logger } from '../logger';
 import { loadActor, type Actor } from './access';
@@ -21,7 +22,17 @@ declare module 'express-serve-static-core' {
 const THIRTY_DAYS_MS = 30 * 24 * 3600 * 1000;
 
 /** Sessions live in PostgreSQL (the `session` table from the migrations), so any process can serve. */
-export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler {
+/**
+ * The session cookie's Secure flag (COOKIE_SECURE): in production always, unless turned off for a
+ * plain-http setup; elsewhere only when the request came over https (`auto`, which needs
+ * TRUST_PROXY=1 behind a TLS-terminating proxy). A Secure cookie is not sent at all over plain http.
+ */
+export function cookieSecure(config: Pick<Config, 'NODE_ENV' | 'COOKIE_SECURE'>): boolean | 'auto' {
+  const setting = config.COOKIE_SECURE ?? (config.NODE_ENV === 'production' ? '1' : 'auto');
+  return setting === 'auto' ? 'auto' : setting === '1';
+}
+
+export function sessionMiddleware(pool: pg.Pool, secret: string, secure: boolean | 'auto'): RequestHandler {
   const PgStore = connectPgSimple(session);
   return session({
     // a store error reaches the error handler through next(); its own log goes to ours, not stderr
@@ -37,7 +48,7 @@ export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler
     saveUninitialized: false,
     rolling: true,
     // a field device may stay offline for weeks; the session outlives that
-    cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: THIRTY_DAYS_MS },
+    cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: THIRTY_DAYS_MS },
   });
 }
 

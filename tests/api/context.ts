@@ -7,7 +7,7 @@ import type { DataSource } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
 import { formatHlc } from '../../shared/hlc';
 import { createApp, type App } from '../../server/app';
-import { readConfig } from '../../server/config';
+import { readConfig, type Config } from '../../server/config';
 import { makeDataSource } from '../../server/data-source';
 import { DEMO_PASSWORD } from '../../scripts/demo-data';
 
@@ -21,12 +21,19 @@ export interface TestContext {
   close(): Promise<void>;
 }
 
-export async function startApp(options: { signInLimit?: number } = {}): Promise<TestContext> {
+/** The limits are high unless a test sets them: one address (loopback) makes every request here. */
+export async function startApp(options: { signInLimit?: number; config?: Partial<Config> } = {}): Promise<TestContext> {
   const config = readConfig();
   const ds = await makeDataSource(config.DATABASE_URL).initialize();
   const app = createApp({
     dataSource: ds,
-    config: { ...config, SIGN_IN_LIMIT: options.signInLimit ?? 10_000 },
+    config: {
+      ...config,
+      SIGN_IN_LIMIT: options.signInLimit ?? 10_000,
+      SIGN_IN_ADDRESS_LIMIT: 10_000,
+      RESET_LIMIT: 10_000,
+      ...options.config,
+    },
   });
   return {
     ds,
