@@ -7,7 +7,7 @@ import type { DataSource } from 'typeorm';
 import { authRouter, meRouter } from './auth/routes';
 import { cookieSecure, sessionMiddleware } from './auth/session';
 import type { Config } from './config';
-import { DB_CONNECT_TIMEOUT_MS, guardPool } from './db-health';
+import { DB_APPLICATION_NAME, DB_CONNECT_TIMEOUT_MS, guardPool } from './db-health';
 import { errorHandler } from './http/error-handler';
 import type { LimitConfig } from './http/rate-limits';
 import { requestLog } from './http/request-log';
@@ -34,6 +34,12 @@ export interface AppDeps {
 export interface App extends Express {
   /** closes what createApp opened (session pool, S3 client, ExifTool); the DataSource is the caller's */
   closeResources(): Promise<void>;
+  /**
+   * The process is stopping (server/index.ts): every answer from now on closes its connection, so
+   * a load balancer's kept-alive connections end after the request they carry instead of bringing
+   * more; the health check answers 503 so that a balancer that polls it stops sending.
+   */
+  startDraining(): void;
 }
 
 export function createApp({ dataSource, config, webDir }: AppDeps): App {
@@ -52,9 +58,18 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
     }),
   );
   app.use(requestLog);
+  let draining = false;
+  app.use((_req, res, next) => {
+    if (draining) res.setHeader('Connection', 'close');
+    next();
+  });
 
   // health first and without a session: load balancers call it often
   app.get('/api/health', async (_req, res) => {
+    if (draining) {
+      res.status(503).json({ ok: false, db: 'unknown', draining: true });
+      return;
+    }
     try {
       await dataSource.query('SELECT 1');
       res.json({ ok: true, db: 'up' });
@@ -66,7 +81,12 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   // its own small pool, with an 'error' listener: without one a connection dropped by a database
   // restart ends the process (server/db-health.ts)
   const sessionPool = guardPool(
-    new pg.Pool({ connectionString: config.DATABASE_URL, max: 4, connectionTimeoutMillis: DB_CONNECT_TIMEOUT_MS }),
+    new pg.Pool({
+      connectionString: config.DATABASE_URL,
+      max: 4,
+      connectionTimeoutMillis: DB_CONNECT_TIMEOUT_MS,
+      application_name: DB_APPLICATION_NAME,
+    }),
     'session',
   );
   // a full push (500 mutations) can pass 2 MB; its body is read here and skipped by the next parser
@@ -98,6 +118,9 @@ export function createApp({ dataSource, config, webDir }: AppDeps): App {
   }
 
   app.use(errorHandler);
+  app.startDraining = () => {
+    draining = true;
+  };
   app.closeResources = async () => {
     photoStore.close();
     await closePhotoTools();

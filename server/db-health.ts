@@ -56,5 +56,11 @@ export function guardPool(pool: pg.Pool, name: string): pg.Pool {
   return pool;
 }
 
+/**
+ * What each process calls its connections (pg_stat_activity.application_name): with N processes
+ * an operator can tell whose they are, and a test can see one process let go of all of its own.
+ */
+export const DB_APPLICATION_NAME = `ampwright:${process.pid}`;
+
 /** How long a request waits for a new database connection before it fails (and answers 503). */
 export const DB_CONNECT_TIMEOUT_MS = 5_000;
