@@ -94,24 +94,46 @@ describe('two API processes behind nginx', () => {
     prefix = fs.mkdtempSync(path.join(os.tmpdir(), 'ampwright-nginx-'));
     // as root nginx's worker runs as nobody, and must reach the temp folders
     fs.chmodSync(prefix, 0o755);
-    const port = Number(process.env.AMPWRIGHT_TEST_NGINX_PORT) || (await freePort());
-    fs.writeFileSync(path.join(prefix, 'nginx.conf'), nginxConf(prefix, port, [a.port, b.port]));
-    nginx = spawn(NGINX, ['-e', `${prefix}/error.log`, '-p', prefix, '-c', `${prefix}/nginx.conf`], {
-      stdio: ['ignore', 'inherit', 'inherit'],
-    });
+    // the port asked for (AMPWRIGHT_TEST_NGINX_PORT), else one the kernel says is free; a port
+    // taken meanwhile (a client's outgoing connection can hold any port of the ephemeral range)
+    // makes nginx give up binding it: then try another
+    let port = Number(process.env.AMPWRIGHT_TEST_NGINX_PORT) || (await freePort());
+    for (let attempt = 1; ; attempt++) {
+      if (await startNginx(port)) break;
+      const log = fs.readFileSync(`${prefix}/error.log`, 'utf8');
+      if (attempt === 3 || !/Address already in use/.test(log)) assert.fail(`nginx did not start:\n${log}`);
+      port = await freePort();
+    }
     lb = `http://127.0.0.1:${port}`;
-    for (let i = 0; i < 80; i++) {
-      if (nginx.exitCode !== null) break;
-      try {
-        if ((await fetch(`${lb}/api/health`)).ok) break;
-      } catch {
-        // not up yet
+    cookie = await signInCookie(lb, 'admin');
+  });
+
+  /** nginx on `port` in front of A and B: true once it answers through to an API process. */
+  async function startNginx(port: number): Promise<boolean> {
+    fs.writeFileSync(path.join(prefix, 'nginx.conf'), nginxConf(prefix, port, [a.port, b.port]));
+    fs.writeFileSync(path.join(prefix, 'error.log'), '');
+    const started = spawn(NGINX as string, ['-e', `${prefix}/error.log`, '-p', prefix, '-c', `${prefix}/nginx.conf`], {
+      stdio: ['ignore', 'ignore', 'inherit'],
+    });
+    const exited = new Promise<void>((resolve) => started.once('exit', () => resolve()));
+    for (let i = 0; i < 100 && started.exitCode === null; i++) {
+      // the pid file is written once nginx holds the port: before that, whatever answers is not it
+      if (fs.existsSync(`${prefix}/nginx.pid`)) {
+        try {
+          if ((await fetch(`http://127.0.0.1:${port}/api/health`)).ok) {
+            nginx = started;
+            return true;
+          }
+        } catch {
+          // not serving yet
+        }
       }
       await sleep(100);
     }
-    assert.equal(nginx.exitCode, null, `nginx did not start: ${fs.readFileSync(`${prefix}/error.log`, 'utf8')}`);
-    cookie = await signInCookie(lb, 'admin');
-  });
+    if (started.exitCode === null) started.kill('SIGTERM');
+    await exited;
+    return false;
+  }
 
   after(async () => {
     if (nginx && nginx.exitCode === null) {
