@@ -71,6 +71,19 @@ ensure_pdf_tools() {
   apt_install poppler-utils
 }
 
+# The multi-process API test (tests/api/multi-process.test.ts) puts Debian's nginx in front of two
+# API processes as the load balancer; it runs as a foreground process of the test, never as a service.
+ensure_nginx() {
+  [ -x /usr/sbin/nginx ] && return 0
+  log "Installing Debian's nginx for the multi-process test…"
+  apt_install nginx
+  # where systemd runs, the package starts its own nginx on port 80; the test needs the binary only
+  if command -v systemctl >/dev/null && systemctl is-active --quiet nginx 2>/dev/null; then
+    if is_root; then systemctl disable --now nginx >/dev/null 2>&1 || true
+    else sudo -n systemctl disable --now nginx >/dev/null 2>&1 || true; fi
+  fi
+}
+
 # Where a cluster's data lives. PostgreSQL refuses to run as root, so as root the cluster runs as
 # the postgres user, whose home cannot reach a checkout under /root: use a per-checkout folder under
 # /var/tmp instead. A normal user keeps it in the git-ignored .data/ of the checkout.

@@ -7,6 +7,7 @@ ensure_postgres
 ensure_perl
 ensure_chromium
 ensure_pdf_tools
+ensure_nginx
 
 TEST_PG_PORT="${AMPWRIGHT_TEST_PG_PORT:-54339}"
 TEST_S3_PORT="${AMPWRIGHT_TEST_S3_PORT:-54340}"

@@ -6,9 +6,11 @@ import helmet from 'helmet';
 import pg from 'pg';
 import type { DataSource } from 'typeorm';
 import { authRouter, meRouter } from './auth/routes';
-import { sessionMiddleware } from './auth/session';
+import { cookieSecure, sessionMiddleware } from './auth/session';
 import type { Config } from './config';
+import { DB_APPLICATION_NAME, DB_CONNECT_TIMEOUT_MS, guardPool } from './db-health';
 import { errorHandler } from './http/error-handler';
+import type { LimitConfig } from './http/rate-limits';
 import { requestLog } from './http/request-log';
 import { jsonBodiesOnly, sameOriginOnly } from './http/same-origin';
 import { accessRouter } from './routes/access';
@@ -23,7 +25,10 @@ import { PhotoStore, type PhotoStoreConfig } from './services/photo-store';
 
 export interface AppDeps {
   dataSource: DataSource;
-  config: Pick<Config, 'DATABASE_URL' | 'SESSION_SECRET' | 'SIGN_IN_LIMIT' | 'TRUST_PROXY' | 'PUBLIC_URL' | 'ALLOWED_ORIGINS'> & PhotoStoreConfig & MailConfig;
+  config: Pick<Config, 'NODE_ENV' | 'DATABASE_URL' | 'SESSION_SECRET' | 'TRUST_PROXY' | 'COOKIE_SECURE' | 'PUBLIC_URL' | 'ALLOWED_ORIGINS'> &
+    LimitConfig &
+    PhotoStoreConfig &
+    MailConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
   /** gzip/brotli responses when the client accepts them (default true; the bench turns it off for its baseline) */
@@ -33,6 +38,12 @@ export interface AppDeps {
 export interface App extends Express {
   /** closes what createApp opened (session pool, S3 client, ExifTool); the DataSource is the caller's */
   closeResources(): Promise<void>;
+  /**
+   * The process is stopping (server/index.ts): every answer from now on closes its connection, so
+   * a load balancer's kept-alive connections end after the request they carry instead of bringing
+   * more; the health check answers 503 so that a balancer that polls it stops sending.
+   */
+  startDraining(): void;
 }
 
 /** A file whose name carries a content hash (Metro's bundles, exported assets) never changes. */
@@ -64,6 +75,11 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
     }),
   );
   app.use(requestLog);
+  let draining = false;
+  app.use((_req, res, next) => {
+    if (draining) res.setHeader('Connection', 'close');
+    next();
+  });
   // a phone on a weak signal: JSON and the JS bundle shrink 6–15× (brotli when the client offers
   // it, else gzip); images and PDFs are left alone by the middleware's compressible-type check
   if (compress) app.use(compression());
@@ -73,6 +89,10 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
 
   // health first and without a session: load balancers call it often
   app.get('/api/health', async (_req, res) => {
+    if (draining) {
+      res.status(503).json({ ok: false, db: 'unknown', draining: true });
+      return;
+    }
     try {
       await dataSource.query('SELECT 1');
       res.json({ ok: true, db: 'up' });
@@ -81,11 +101,21 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
     }
   });
 
-  const sessionPool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 4 });
+  // its own small pool, with an 'error' listener: without one a connection dropped by a database
+  // restart ends the process (server/db-health.ts)
+  const sessionPool = guardPool(
+    new pg.Pool({
+      connectionString: config.DATABASE_URL,
+      max: 4,
+      connectionTimeoutMillis: DB_CONNECT_TIMEOUT_MS,
+      application_name: DB_APPLICATION_NAME,
+    }),
+    'session',
+  );
   // a full push (500 mutations) can pass 2 MB; its body is read here and skipped by the next parser
   app.use('/api/sync', express.json({ limit: '5mb' }));
-  app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET));
-  app.use('/api/auth', authRouter(dataSource, config.SIGN_IN_LIMIT));
+  app.use('/api', express.json({ limit: '2mb' }), sessionMiddleware(sessionPool, config.SESSION_SECRET, cookieSecure(config)));
+  app.use('/api/auth', authRouter(dataSource, config));
   app.use('/api', meRouter(dataSource));
   // before the register router, whose requireUser would otherwise load the actor a second time
   // (and so are the photos)
@@ -118,6 +148,9 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
   }
 
   app.use(errorHandler);
+  app.startDraining = () => {
+    draining = true;
+  };
   app.closeResources = async () => {
     photoStore.close();
     await closePhotoTools();

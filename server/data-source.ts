@@ -1,5 +1,6 @@
 import { DataSource } from 'typeorm';
 import { readConfig } from './config';
+import { DB_APPLICATION_NAME, DB_CONNECT_TIMEOUT_MS, poolErrorLogger } from './db-health';
 import { entities } from './entities';
 import { Register1764641000000 } from './migrations/1764641000000-register';
 import { Sync1764900000000 } from './migrations/1764900000000-sync';
@@ -27,7 +28,11 @@ export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
     ],
     synchronize: false,
     logging: false,
-    extra: { max: 10 },
+    // TypeORM's own pool: its default error handler logs through TypeORM's logger, which is off;
+    // ours keeps the broken connection visible in the server log
+    poolErrorHandler: poolErrorLogger('typeorm'),
+    applicationName: DB_APPLICATION_NAME,
+    extra: { max: 10, connectionTimeoutMillis: DB_CONNECT_TIMEOUT_MS },
   });
 }
 

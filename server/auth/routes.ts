@@ -1,6 +1,5 @@
 import bcrypt from 'bcryptjs';
 import { Router, type Request } from 'express';
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { DataSource } from 'typeorm';
 import { signInBody, type MeResponse } from '../../shared/schemas';
 import { Membership, Organisation, User } from '../entities';
@@ -8,6 +7,8 @@ import type { Role } from '../../shared/domain';
 import { DEFAULT_SETTINGS, type OrganisationSettings } from '../../shared/records';
 import { AppError, UnauthorisedError } from '../http/errors';
 import { handle } from '../http/handle';
+import { signInLimiters, type LimitConfig } from '../http/rate-limits';
+import { logger } from '../logger';
 import { requireUser } from './session';
 
 // compared against when the e-mail is unknown, so both failures take the same time
@@ -52,26 +53,12 @@ function regenerate(req: Request): Promise<void> {
   return new Promise((resolve, reject) => req.session.regenerate((e) => (e ? reject(e) : resolve())));
 }
 
-export function authRouter(ds: DataSource, signInLimit: number): Router {
+export function authRouter(ds: DataSource, limits: LimitConfig): Router {
   const router = Router();
-
-  const signInLimiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: signInLimit,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) =>
-      `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}`,
-    handler: (_req, res) => {
-      res.status(429).json({
-        error: { code: 'too_many_attempts', message: 'Too many sign-in attempts. Wait 15 minutes and try again.' },
-      });
-    },
-  });
 
   router.post(
     '/sign-in',
-    signInLimiter,
+    ...signInLimiters(limits),
     handle({ body: signInBody }, async ({ body }, req) => {
       const user = await ds.manager
         .createQueryBuilder(User, 'u')
@@ -82,6 +69,13 @@ export function authRouter(ds: DataSource, signInLimit: number): Router {
       if (!user || !ok) throw new AppError(401, 'bad_credentials', 'That e-mail and password do not match');
       await regenerate(req);
       req.session.userId = user.id;
+      if (req.session.cookie.secure === true && !req.secure) {
+        // express-session then sends no cookie at all: the user would seem signed in, then not
+        logger.warn(
+          { reqId: req.id },
+          'a Secure session cookie cannot be set over plain http: behind a TLS proxy set TRUST_PROXY=1; on plain http set COOKIE_SECURE=0',
+        );
+      }
       return describeUser(ds, user.id);
     }),
   );

@@ -3,7 +3,9 @@ import type { RequestHandler } from 'express';
 import session from 'express-session';
 import type pg from 'pg';
 import type { DataSource } from 'typeorm';
+import type { Config } from '../config';
 import { UnauthorisedError } from '../http/errors';
+import { logger } from '../logger';
 import { loadActor, type Actor } from './access';
 
 declare module 'express-session' {
@@ -28,7 +30,17 @@ export const TOUCH_EVERY_MS = 10 * 60 * 1000;
 const TOUCHES_KEPT = 10_000;
 
 /** Sessions live in PostgreSQL (the `session` table from the migrations), so any process can serve. */
-export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler {
+/**
+ * The session cookie's Secure flag (COOKIE_SECURE): in production always, unless turned off for a
+ * plain-http setup; elsewhere only when the request came over https (`auto`, which needs
+ * TRUST_PROXY=1 behind a TLS-terminating proxy). A Secure cookie is not sent at all over plain http.
+ */
+export function cookieSecure(config: Pick<Config, 'NODE_ENV' | 'COOKIE_SECURE'>): boolean | 'auto' {
+  const setting = config.COOKIE_SECURE ?? (config.NODE_ENV === 'production' ? '1' : 'auto');
+  return setting === 'auto' ? 'auto' : setting === '1';
+}
+
+export function sessionMiddleware(pool: pg.Pool, secret: string, secure: boolean | 'auto'): RequestHandler {
   const PgStore = connectPgSimple(session);
   class ThrottledStore extends PgStore {
     private readonly touched = new Map<string, number>();
@@ -46,14 +58,20 @@ export function sessionMiddleware(pool: pg.Pool, secret: string): RequestHandler
     }
   }
   return session({
-    store: new ThrottledStore({ pool, tableName: 'session', createTableIfMissing: false }),
+    // a store error reaches the error handler through next(); its own log goes to ours, not stderr
+    store: new ThrottledStore({
+      pool,
+      tableName: 'session',
+      createTableIfMissing: false,
+      errorLog: (...args: unknown[]) => logger.warn({ detail: args.map(String).join(' ') }, 'session store error'),
+    }),
     name: 'ampwright.sid',
     secret,
     resave: false,
     saveUninitialized: false,
     rolling: true,
     // a field device may stay offline for weeks; the session outlives that
-    cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: THIRTY_DAYS_MS },
+    cookie: { httpOnly: true, sameSite: 'lax', secure, maxAge: THIRTY_DAYS_MS },
   });
 }
 

@@ -4,7 +4,6 @@
  * the routers that require a signed-in user for every path.
  */
 import { Router, type Request } from 'express';
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { DataSource } from 'typeorm';
 import { z } from 'zod';
 import {
@@ -18,6 +17,7 @@ import {
 } from '../../shared/access';
 import { requireUser } from '../auth/session';
 import { handle } from '../http/handle';
+import { oneTimeLinkLimiter, resetRequestLimiter, type LimitConfig } from '../http/rate-limits';
 import { logger } from '../logger';
 import * as access from '../services/access';
 import * as invitations from '../services/invitations';
@@ -45,29 +45,19 @@ async function signInAs(req: Request, userId: string): Promise<void> {
 const reportPdf: access.ReportPdf = (ds, store, actor, inspectionId) =>
   inspectionReportPdf(ds, store as PhotoStore, actor, inspectionId);
 
-export function accessRouter(ds: DataSource, config: MailConfig & { SIGN_IN_LIMIT: number }, store: PhotoStore): Router {
+export function accessRouter(ds: DataSource, config: MailConfig & LimitConfig, store: PhotoStore): Router {
   const router = Router();
   const mailer = new Mailer(config);
   const user = requireUser(ds);
 
-  // like sign-in: per address and e-mail (or token), per 15 minutes
-  const limiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: config.SIGN_IN_LIMIT,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) =>
-      `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? req.params?.token ?? '').toLowerCase()}`,
-    handler: (_req, res) => {
-      res.status(429).json({
-        error: { code: 'too_many_attempts', message: 'Too many attempts. Wait 15 minutes and try again.' },
-      });
-    },
-  });
+  // like sign-in: per address and e-mail (or token), per 15 minutes (server/http/rate-limits.ts)
+  const limiter = oneTimeLinkLimiter(config);
+  const resetLimiter = resetRequestLimiter(config);
 
   // ----- public: the one-time links -----
   router.post(
     '/auth/forgot-password',
+    resetLimiter,
     limiter,
     handle({ body: forgotPasswordBody }, async ({ body }, _req, res) => {
       // answer first, then look the address up: the same answer and timing either way

@@ -14,6 +14,9 @@ import * as photos from '../services/photos';
 
 const photoParams = z.object({ photoId: idSchema });
 const MAX_MB = Math.round(PHOTO_MAX_BYTES / 1024 / 1024);
+/** uploads one user may have in flight in this process */
+export const MAX_UPLOADS_AT_ONCE = 3;
+const UPLOAD_RETRY_AFTER_S = 5;
 
 /**
  * `PUT /api/photos/:photoId` (multipart, field `photo`, header `x-content-sha256`) and
@@ -47,6 +50,11 @@ export function photosRouter(ds: DataSource, store: PhotoStore): Router {
   // multer's own errors in the API's shape; it drains the rest of the body itself
   const receivePhoto: RequestHandler = (req, res, next) => {
     multipart(req, res, (error: unknown) => {
+      if (error && req.socket.destroyed) {
+        // the device hung up mid-upload (signal lost): no one to answer, and no fault of ours
+        logger.info({ reqId: req.id, err: error }, 'photo upload abandoned by the client');
+        return;
+      }
       if (!(error instanceof multer.MulterError)) return next(error);
       if (error.code === 'LIMIT_FILE_SIZE') {
         return next(new AppError(413, 'too_large', `A photo may be at most ${MAX_MB} MB`));
@@ -55,8 +63,30 @@ export function photosRouter(ds: DataSource, store: PhotoStore): Router {
     });
   };
 
+  // each upload holds its body in memory and decodes it: a few at once per user is plenty for the
+  // app (it sends one at a time) and keeps one account from filling the server's memory
+  const inFlight = new Map<string, number>();
+  const uploadSlot: RequestHandler = (req, res, next) => {
+    const userId = req.actor.userId;
+    const busy = inFlight.get(userId) ?? 0;
+    if (busy >= MAX_UPLOADS_AT_ONCE) {
+      res.setHeader('Retry-After', String(UPLOAD_RETRY_AFTER_S));
+      next(new AppError(429, 'too_many_uploads', `At most ${MAX_UPLOADS_AT_ONCE} photo uploads at once; try again in a few seconds`));
+      return;
+    }
+    inFlight.set(userId, busy + 1);
+    // 'close' comes once whether the answer went out or the client went away
+    res.once('close', () => {
+      const left = (inFlight.get(userId) ?? 1) - 1;
+      if (left > 0) inFlight.set(userId, left);
+      else inFlight.delete(userId);
+    });
+    next();
+  };
+
   router.put(
     '/:photoId',
+    uploadSlot,
     checkTarget,
     receivePhoto,
     handle({ params: photoParams }, async ({ params }, req) =>

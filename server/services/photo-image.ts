@@ -116,24 +116,41 @@ export async function stripLocation(bytes: Buffer, type: PhotoType): Promise<Buf
 }
 
 /**
+ * The most pixels a photo may have: 50 MP is more than any phone camera's full frame (the app
+ * itself sends a long edge of 2000 px) and bounds what decoding one upload may cost: about
+ * 200 MB of RGBA, where sharp's own default (268 MP) would allow a gigabyte.
+ */
+export const PHOTO_MAX_PIXELS = 50_000_000;
+
+/**
  * A WebP thumbnail, upright (EXIF orientation applied) with a long edge of THUMB_LONG_EDGE_PX and
- * no metadata at all; null for HEIC, which this sharp cannot decode. Decoding the whole picture
+ * no metadata at all; null for HEIC, which this sharp cannot decode. The header is read first:
+ * more than PHOTO_MAX_PIXELS is a 413 before a pixel is decoded. Decoding the whole picture
  * here is also the check that a JPEG/PNG/WebP is an image and not just its first bytes.
  */
 export async function makeThumbnail(bytes: Buffer, type: PhotoType): Promise<Buffer | null> {
+  const unreadable = () =>
+    new AppError(415, 'unreadable_photo', `The file starts like a ${TYPE_NAMES[type]} image but could not be decoded`);
+  // the container must at least be readable, HEIC included
+  const header = await sharp(bytes).metadata().catch(() => null);
+  if (!header) throw unreadable();
+  if (header.width && header.height && header.width * header.height > PHOTO_MAX_PIXELS) {
+    const mp = ((header.width * header.height) / 1e6).toFixed(1);
+    throw new AppError(
+      413,
+      'too_many_pixels',
+      `A photo may have at most ${PHOTO_MAX_PIXELS / 1e6} megapixels; this one is ${header.width} × ${header.height} (${mp} MP)`,
+    );
+  }
+  if (type === 'image/heic') return null;
   try {
-    if (type === 'image/heic') {
-      // the container must at least be readable
-      await sharp(bytes).metadata();
-      return null;
-    }
-    return await sharp(bytes, { failOn: 'error' })
+    return await sharp(bytes, { failOn: 'error', limitInputPixels: PHOTO_MAX_PIXELS })
       .rotate()
       .resize({ width: THUMB_LONG_EDGE_PX, height: THUMB_LONG_EDGE_PX, fit: 'inside', withoutEnlargement: true })
       .webp({ quality: 72 })
       .toBuffer();
   } catch {
-    throw new AppError(415, 'unreadable_photo', `The file starts like a ${TYPE_NAMES[type]} image but could not be decoded`);
+    throw unreadable();
   }
 }
 

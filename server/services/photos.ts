@@ -16,7 +16,10 @@
  *   PNG, WebP or HEIC → 415; a real image of another type than the row records → 415, because the
  *   row (synced to every device) would then describe a file we do not have. So a JPEG uploaded
  *   as `x.txt` is accepted when its row says image/jpeg;
+ * - more than PHOTO_MAX_PIXELS (photo-image.ts, read from the header) → 413 too_many_pixels;
  * - a file that starts like an image but does not decode → 415.
+ * At most MAX_UPLOADS_AT_ONCE uploads per user are in flight in one process (routes/photos.ts);
+ * more answer 429 with Retry-After.
  * Nothing is stored unless every check passed. A deleted (tombstoned) photo still takes its bytes,
  * so that a restore brings it back whole; it is not served while deleted.
  */
@@ -132,6 +135,14 @@ export async function uploadPhoto(
       400,
       'checksum_mismatch',
       'The bytes received do not match x-content-sha256 (damaged on the way?); send them again',
+    );
+  }
+  // after the hash: a transfer cut short is a checksum_mismatch the device retries; these are the
+  // photo's bytes, and its row (synced to every device) records another size
+  if (bytes.length !== photo.bytes) {
+    throw new ValidationError(
+      { bytes: `the photo's record says ${photo.bytes} bytes; ${bytes.length} were received` },
+      'The photo is not the size its record declares',
     );
   }
 

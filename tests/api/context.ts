@@ -21,12 +21,19 @@ export interface TestContext {
   close(): Promise<void>;
 }
 
+/** The limits are high unless a test sets them: one address (loopback) makes every request here. */
 export async function startApp(options: { signInLimit?: number; config?: Partial<Config> } = {}): Promise<TestContext> {
   const config = { ...readConfig(), ...options.config };
   const ds = await makeDataSource(config.DATABASE_URL).initialize();
   const app = createApp({
     dataSource: ds,
-    config: { ...config, SIGN_IN_LIMIT: options.signInLimit ?? 10_000 },
+    config: {
+      ...config,
+      SIGN_IN_LIMIT: options.signInLimit ?? 10_000,
+      SIGN_IN_ADDRESS_LIMIT: 10_000,
+      RESET_LIMIT: 10_000,
+      ...options.config,
+    },
   });
   return {
     ds,
