@@ -77,6 +77,8 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
   /** entries found unreadable at boot: removed by the next save */
   const damaged = new Set<string>();
   let markLoaded: () => void = () => undefined;
+  /** set once the provider has hydrated what was saved: no write may happen before */
+  let restored = false;
   const loaded = new Promise<void>((resolve) => (markLoaded = resolve));
 
   const replica = () => queryClient.getQueryData<Replica>(REPLICA);
@@ -128,6 +130,8 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
   }
 
   async function write(): Promise<void> {
+    // before the restore has put the saved state back, a save would write an empty queue over it
+    if (!restored) return;
     const small = JSON.stringify(snapshot());
     const { set, remove, next } = await plan(replica());
     try {
@@ -256,6 +260,7 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
   }
 
   async function loadRest(): Promise<void> {
+    restored = true;
     try {
       await readRest();
     } catch (error) {
@@ -318,6 +323,14 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
     markLoaded();
     flushSoon();
   }
+
+  // a pull that landed is written at once, not after the coalescing delay: a reload a moment
+  // later then opens on it instead of waiting for the next pull
+  queryClient.getQueryCache().subscribe((event) => {
+    if (event.type !== 'updated' || event.query.queryKey[0] !== REPLICA[0]) return;
+    // a fetch that succeeded, not the restore's own setQueryData
+    if (event.action.type === 'success' && !event.action.manual) void flush();
+  });
 
   const persister: Persister = {
     // the provider calls this on every change of the cache: write a moment later, coalesced
