@@ -183,16 +183,16 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
   async function restore(): Promise<PersistedClient | undefined> {
     const [smallRaw, indexRaw] = await kv.getMany([cacheKey(userId), keys.index]).catch(() => [null, null]);
     const small = readSmall(smallRaw);
-    let restored: Replica = EMPTY_REPLICA;
+    let copy: Replica = EMPTY_REPLICA;
     if (small.legacyReplica) {
       // written by an earlier version as one blob: take it whole, the next save splits it
-      restored = small.legacyReplica;
+      copy = small.legacyReplica;
     } else if (indexRaw !== null) {
-      restored = await readCopy(indexRaw);
+      copy = await readCopy(indexRaw);
     }
-    if (Object.keys(restored.buildings).length || restored.lastSyncAt) {
+    if (Object.keys(copy.buildings).length || copy.lastSyncAt) {
       // dated long ago: the copy is shown at once and a pull is asked for as soon as it can run
-      queryClient.setQueryData(REPLICA, restored, { updatedAt: 1 });
+      queryClient.setQueryData(REPLICA, copy, { updatedAt: 1 });
     }
     return small.client;
   }
