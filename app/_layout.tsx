@@ -7,7 +7,7 @@ import { useEffect, useMemo, useState } from 'react';
 import { Platform } from 'react-native';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { EmptyState, ErrorState, LoadingState } from '@/components/states';
-import { SyncStatus } from '@/components/sync-status';
+import { headerOptions } from '@/components/header-options';
 import { colours, fonts } from '@/components/theme';
 import { AccountContext, useSession, type Account } from '@/hooks/use-session';
 import { getActiveUser, setActiveUser, setCacheFlush, wipeUserCache } from '@/lib/account';
@@ -185,13 +185,7 @@ function RootStack() {
   const signedIn = !!session.data;
   return (
     <Stack
-      screenOptions={{
-        headerStyle: { backgroundColor: colours.ink },
-        headerTintColor: colours.paper,
-        headerTitleStyle: { fontFamily: fonts.textBold },
-        contentStyle: { backgroundColor: colours.paper },
-        headerRight: signedIn ? () => <SyncStatus /> : undefined,
-      }}
+      screenOptions={{ ...headerOptions(signedIn), contentStyle: { backgroundColor: colours.paper } }}
     >
       <Stack.Protected guard={signedIn}>
         {/* the title is what the back button of a screen above the tabs reads */}

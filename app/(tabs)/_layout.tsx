@@ -1,6 +1,6 @@
 import { Tabs } from 'expo-router/js-tabs';
 import type { ColorValue } from 'react-native';
-import { SyncStatus } from '@/components/sync-status';
+import { headerOptions } from '@/components/header-options';
 import { Text } from '@/components/text';
 import { colours, fonts } from '@/components/theme';
 
@@ -13,14 +13,11 @@ export default function TabsLayout() {
   return (
     <Tabs
       screenOptions={{
-        headerStyle: { backgroundColor: colours.ink },
-        headerTintColor: colours.paper,
-        headerTitleStyle: { fontFamily: fonts.textBold },
+        ...headerOptions(true),
         tabBarActiveTintColor: colours.copper,
         tabBarInactiveTintColor: colours.inkSoft,
         tabBarLabelStyle: { fontFamily: fonts.textBold, fontSize: 12 },
         tabBarStyle: { backgroundColor: colours.card, minHeight: 56 },
-        headerRight: () => <SyncStatus />,
       }}
     >
       {/* a stack of its own (app/(tabs)/(home)/_layout.tsx) with its own header */}

@@ -1,6 +1,6 @@
 import { Stack } from 'expo-router';
-import { SyncStatus } from '@/components/sync-status';
-import { colours, fonts } from '@/components/theme';
+import { headerOptions } from '@/components/header-options';
+import { colours } from '@/components/theme';
 
 /**
  * The Buildings tab is a stack: a building, its panels, circuits, inspections and trips open on top
@@ -15,13 +15,7 @@ export const unstable_settings = { initialRouteName: 'index' };
 export default function BuildingsStack() {
   return (
     <Stack
-      screenOptions={{
-        headerStyle: { backgroundColor: colours.ink },
-        headerTintColor: colours.paper,
-        headerTitleStyle: { fontFamily: fonts.textBold },
-        contentStyle: { backgroundColor: colours.paper },
-        headerRight: () => <SyncStatus />,
-      }}
+      screenOptions={{ ...headerOptions(true), contentStyle: { backgroundColor: colours.paper } }}
     >
       <Stack.Screen name="index" options={{ title: 'Buildings' }} />
       <Stack.Screen name="buildings/[buildingId]" options={{ title: 'Building' }} />
