@@ -14,6 +14,7 @@ import { requireUser } from '../auth/session';
 import { handle } from '../http/handle';
 import { serverStamp } from '../services/clock';
 import * as register from '../services/register';
+import { readPanel } from '../services/panel-read';
 
 /**
  * REST routes of the register, kept for scripts and integrations; the app's own writes go through
@@ -64,7 +65,7 @@ export function registerRouter(ds: DataSource): Router {
   );
   router.get(
     '/panels/:id',
-    handle({ params: idParams }, async ({ params }, req) => register.getPanel(ds.manager, req.actor, params.id)),
+    handle({ params: idParams }, async ({ params }, req) => readPanel(ds.manager, req.actor, params.id)),
   );
   router.patch(
     '/panels/:id',

@@ -468,31 +468,6 @@ export async function getBuilding(em: EntityManager, actor: Actor, id: string) {
   return { building: buildingDto(building, role, panels.length), panels: panels.map(panelDto) };
 }
 
-/** Columns a read sends: field_meta (the per-field stamps) is larger than the row and never leaves the server. */
-const SENT = { without: ['fieldMeta'] } as const;
-
-/**
- * The panel screen's read, the most frequent one: four independent statements at once (none waits
- * for another), raw selects of the sent columns only; visibility is checked before anything is
- * answered, so rows read for a panel the actor may not see are dropped unsent.
- */
-export async function getPanel(em: EntityManager, actor: Actor, id: string) {
-  const ofPanel = '(SELECT building_id FROM panel WHERE id = $1)';
-  const [[panel], [building], circuits, [count]] = await Promise.all([
-    selectRows(em, Panel, 'id = $1 AND deleted_at IS NULL', [id], SENT),
-    selectRows(em, Building, `id = ${ofPanel} AND deleted_at IS NULL`, [id], SENT),
-    selectRows(em, Circuit, 'panel_id = $1 AND deleted_at IS NULL ORDER BY position', [id], SENT),
-    em.query(`SELECT count(*) AS n FROM panel WHERE building_id = ${ofPanel} AND deleted_at IS NULL`, [id]) as Promise<{ n: string }[]>,
-  ]);
-  const role = panel && building ? roleForBuilding(actor, building) : null;
-  if (!role) throw new NotFoundError('Panel');
-  return {
-    panel: panelDto(panel),
-    building: buildingDto(building, role, Number(count.n)),
-    circuits: circuits.map(circuitDto),
-  };
-}
-
 // ---------- shared write steps ----------
 
 export async function refuseDuplicateId(em: EntityManager, entity: EntityTarget<SyncColumns>, id: string) {
