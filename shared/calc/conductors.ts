@@ -8,6 +8,7 @@
 import { conductorSizeLabel } from '../domain';
 import type { ConductorMaterial, ConductorSize, InsulationTempC } from '../domain';
 import { positive } from './guard';
+import { ambientCorrectionFactor, bundlingAdjustmentFactor } from './corrections';
 
 /** [60 °C, 75 °C, 90 °C] allowable ampacity, A */
 type AmpacityRow = readonly [number, number, number];
@@ -134,6 +135,10 @@ export interface ConductorCheckInput {
    * at 60 °C; (b) over 100 A and larger than 1 AWG at 75 °C.
    */
   terminalTempC?: InsulationTempC | null;
+  /** ambient temperature where the conductors run, °C; absent or null → the table's 30 °C */
+  ambientC?: number | null;
+  /** current-carrying conductors in the raceway or cable; absent or null → three or fewer */
+  currentCarrying?: number | null;
 }
 
 /** Conductor sizes 110.14(C)(1)(a) names: 14 AWG through 1 AWG. */
@@ -177,8 +182,15 @@ export interface ConductorCheck {
   tempC: InsulationTempC;
   /** where the termination temperature came from (marked, or the 110.14(C)(1) rule) */
   terminationBasis: string;
-  /** Table 310.16 ampacity at tempC */
+  /**
+   * ampacity the check uses: Table 310.16 at tempC; with a correction, the insulation column's
+   * ampacity × the factors, no more than the termination column allows (110.14(C))
+   */
   ampacityA: number | null;
+  /** ambient × bundling factor applied (1 when neither is recorded) */
+  correctionFactor: number;
+  /** the factors in words (Table 310.15(B)(1), 310.15(C)(1)); null when none applied */
+  correctionBasis: string | null;
   /** device rating the ampacity alone allows, with the 240.4(B) next size up where it applies */
   allowedByAmpacityA: number | null;
   /** 240.4(B) next standard size up was used */
@@ -209,14 +221,19 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
   const terminalTempC = termination.tempC;
   const tempC = insulationTempC < terminalTempC ? insulationTempC : terminalTempC;
   const terminationBasis = termination.basis;
-  const ampacityA = ampacity({ size, material, tempC });
+  const correction = correctedAmpacity(input, tempC);
+  const ampacityA = correction.ampacityA;
   const limitA = smallConductorLimitA(size, material);
   const label = `${conductorSizeLabel(size)} ${material === 'Cu' ? 'copper' : 'aluminium'}`;
   const reasons: string[] = [];
 
   if (ampacityA === null) {
-    reasons.push(`NEC Table 310.16 lists no ampacity for ${label}; use a listed conductor size.`);
+    reasons.push(
+      correction.notAllowed ?? `NEC Table 310.16 lists no ampacity for ${label}; use a listed conductor size.`,
+    );
     return {
+      correctionFactor: correction.factor,
+      correctionBasis: correction.basis,
       ok: false,
       allowedA: null,
       reasons,
@@ -246,7 +263,8 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
 
   if (overAmpacity) {
     reasons.push(
-      `${label} is good for ${ampacityA} A at ${tempC} °C (NEC Table 310.16; ${terminationBasis})` +
+      `${label} is good for ${round1(ampacityA)} A at ${tempC} °C (NEC Table 310.16` +
+        `${correction.basis ? `, ${correction.basis}` : ''}; ${terminationBasis})` +
         (nextSizeUpApplied ? `, ${allowedByAmpacityA} A with the next size up (240.4(B))` : '') +
         `; a ${ratingA} A breaker is too big for it.`,
     );
@@ -257,6 +275,8 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
     );
   }
   return {
+    correctionFactor: correction.factor,
+    correctionBasis: correction.basis,
     ok: ratingA <= allowedA,
     allowedA,
     reasons,
@@ -268,5 +288,58 @@ export function conductorCheck(input: ConductorCheckInput): ConductorCheck {
     smallConductorLimitA: limitA,
     overAmpacity,
     overSmallConductorLimit,
+  };
+}
+
+function round1(x: number): number {
+  return Math.round(x * 10) / 10;
+}
+
+/**
+ * The ampacity after correction for ambient (Table 310.15(B)(1)) and adjustment for more than
+ * three current-carrying conductors (Table 310.15(C)(1)). The factors apply to the insulation's own
+ * column, and the result may not exceed the termination column's ampacity (110.14(C): higher-rated
+ * insulation may be used for adjustment and correction, ending at the termination's column).
+ * With neither recorded, this is Table 310.16 at `tempC` exactly as before.
+ */
+function correctedAmpacity(
+  input: ConductorCheckInput,
+  tempC: InsulationTempC,
+): { ampacityA: number | null; factor: number; basis: string | null; notAllowed: string | null } {
+  const { size, material, insulationTempC } = input;
+  const atTermination = ampacity({ size, material, tempC });
+  const hasAmbient = input.ambientC !== null && input.ambientC !== undefined;
+  const hasCount = input.currentCarrying !== null && input.currentCarrying !== undefined;
+  if (!hasAmbient && !hasCount) return { ampacityA: atTermination, factor: 1, basis: null, notAllowed: null };
+  const parts: string[] = [];
+  let factor = 1;
+  if (hasAmbient) {
+    const ambientC = input.ambientC as number;
+    const f = ambientCorrectionFactor(ambientC, insulationTempC);
+    if (f === null) {
+      return {
+        ampacityA: null,
+        factor: 0,
+        basis: `${ambientC} °C ambient`,
+        notAllowed: `${insulationTempC} °C insulation may not be used at ${ambientC} °C ambient (NEC Table 310.15(B)(1)).`,
+      };
+    }
+    factor *= f;
+    if (f !== 1) parts.push(`× ${f} for ${ambientC} °C ambient, Table 310.15(B)(1)`);
+  }
+  if (hasCount) {
+    const count = input.currentCarrying as number;
+    const f = bundlingAdjustmentFactor(count);
+    factor *= f;
+    if (f !== 1) parts.push(`× ${f} for ${count} current-carrying conductors, Table 310.15(C)(1)`);
+  }
+  const atInsulation = ampacity({ size, material, tempC: insulationTempC });
+  if (atInsulation === null || atTermination === null) return { ampacityA: null, factor, basis: null, notAllowed: null };
+  const corrected = atInsulation * factor;
+  return {
+    ampacityA: Math.min(corrected, atTermination),
+    factor,
+    basis: parts.length > 0 ? `${atInsulation} A at ${insulationTempC} °C ${parts.join(' ')}` : null,
+    notAllowed: null,
   };
 }

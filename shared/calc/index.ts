@@ -15,3 +15,8 @@ export * from './nuisance';
 export * from './directory';
 export * from './warnings';
 export * from './safety';
+export * from './fault';
+export * from './capacity';
+export * from './corrections';
+export * from './measured';
+export * from './thermography';
