@@ -32,6 +32,10 @@ const circuit = {
   continuous: false, conductorSize: '12' as const, conductorMaterial: 'Cu' as const, insulationTempC: 90 as const, lengthFt: 50,
 };
 const panel = { system: '208Y/120V-3ph-4w' as const, busRatingA: 225, mainRatingA: 225 };
+const spare = (peakDemandA: number) => ({
+  system: '120/240V-1ph-3w' as const, spaces: 4, circuits: [], panelRatingA: 100, basis: 'year' as const, peakDemandA,
+  newLoad: { va: 2400, volts: 240, poles: 2 as const, continuous: false },
+});
 const plc = (loadVA: number) => ({ position: 1, poles: 1, loadVA, continuous: true, loadKind: 'lighting' as const });
 
 const CASES: Case[] = [
@@ -81,6 +85,21 @@ const CASES: Case[] = [
   { fn: 'circuitWarnings', what: 'rating (a negative rating was "ok")', valid: () => calc.circuitWarnings(circuit, panel), bad: (x) => calc.circuitWarnings({ ...circuit, ratingA: x }, panel) },
   { fn: 'circuitWarnings', what: 'load', valid: () => calc.circuitWarnings(circuit, panel), bad: (x) => calc.circuitWarnings({ ...circuit, loadVA: x }, panel) },
   { fn: 'circuitWarnings', what: 'length', valid: () => calc.circuitWarnings(circuit, panel), bad: (x) => calc.circuitWarnings({ ...circuit, lengthFt: x }, panel) },
+  { fn: 'faultCurrentCheck', what: 'available fault current', valid: () => calc.faultCurrentCheck({ availableKA: 10, panelRatingKA: 10, breakers: [] }), bad: (x) => calc.faultCurrentCheck({ availableKA: x, panelRatingKA: 10, breakers: [] }) },
+  { fn: 'faultCurrentCheck', what: 'a breaker’s interrupting rating', valid: () => calc.faultCurrentCheck({ availableKA: 10, panelRatingKA: null, breakers: [{ id: 'a', label: 'a', interruptingKA: 10 }] }), bad: (x) => calc.faultCurrentCheck({ availableKA: 10, panelRatingKA: null, breakers: [{ id: 'a', label: 'a', interruptingKA: x }] }) },
+  { fn: 'spareCapacity', what: 'peak demand', valid: () => calc.spareCapacity(spare(50)), bad: (x) => calc.spareCapacity(spare(x)) },
+  { fn: 'spareCapacity', what: 'new load VA', valid: () => calc.spareCapacity(spare(50)), bad: (x) => calc.spareCapacity({ ...spare(50), newLoad: { ...spare(50).newLoad, va: x } }) },
+  { fn: 'freePositionsFor', what: 'poles', valid: () => calc.freePositionsFor({ system: '120/240V-1ph-3w', spaces: 4 }, [], 2), bad: (x) => calc.freePositionsFor({ system: '120/240V-1ph-3w', spaces: 4 }, [], x) },
+  { fn: 'ambientCorrectionFactor', what: 'ambient', valid: () => calc.ambientCorrectionFactor(35, 90), bad: (x) => calc.ambientCorrectionFactor(x, 90), values: [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, -41] },
+  { fn: 'bundlingAdjustmentFactor', what: 'conductor count', valid: () => calc.bundlingAdjustmentFactor(4), bad: (x) => calc.bundlingAdjustmentFactor(x) },
+  { fn: 'conductorCheck', what: 'ambient', valid: () => calc.conductorCheck({ ratingA: 20, size: '12', material: 'Cu', insulationTempC: 90, ambientC: 35 }), bad: (x) => calc.conductorCheck({ ratingA: 20, size: '12', material: 'Cu', insulationTempC: 90, ambientC: x }), values: [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY] },
+  { fn: 'neutralCurrentA', what: 'a phase current', valid: () => calc.neutralCurrentA(1, 2, 3), bad: (x) => calc.neutralCurrentA(1, x, 3) },
+  { fn: 'compareMeasured', what: 'a measured current', valid: () => calc.compareMeasured({ A: 1 }, { A: 1 }), bad: (x) => calc.compareMeasured({ A: x }, { A: 1 }) },
+  { fn: 'componentTempCheck', what: 'component temperature', valid: () => calc.componentTempCheck({ componentC: 40, ratingC: 75 }), bad: (x) => calc.componentTempCheck({ componentC: x, ratingC: 75 }), values: [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY] },
+  { fn: 'componentTempCheck', what: 'rating', valid: () => calc.componentTempCheck({ componentC: 40, ratingC: 75 }), bad: (x) => calc.componentTempCheck({ componentC: 40, ratingC: x }) },
+  { fn: 'riseTrend', what: 'a rise', valid: () => calc.riseTrend([{ takenOn: '2026-01-01', riseC: 2 }]), bad: (x) => calc.riseTrend([{ takenOn: '2026-01-01', riseC: x }]), values: [Number.NaN, Number.POSITIVE_INFINITY] },
+  { fn: 'displayTemp', what: 'temperature', valid: () => calc.displayTemp(20, 'F', 'absolute'), bad: (x) => calc.displayTemp(x, 'F', 'absolute'), values: [Number.NaN, Number.POSITIVE_INFINITY] },
+  { fn: 'toCelsius', what: 'temperature', valid: () => calc.toCelsius(68, 'F', 'absolute'), bad: (x) => calc.toCelsius(x, 'F', 'absolute'), values: [Number.NaN, Number.POSITIVE_INFINITY] },
 ];
 
 describe('bad numbers are refused with a RangeError (DEVELOPERS.md "Bad input"; our convention)', () => {
