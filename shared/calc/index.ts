@@ -20,3 +20,4 @@ export * from './capacity';
 export * from './corrections';
 export * from './measured';
 export * from './thermography';
+export * from './trip-plot';

@@ -100,6 +100,7 @@ const CASES: Case[] = [
   { fn: 'riseTrend', what: 'a rise', valid: () => calc.riseTrend([{ takenOn: '2026-01-01', riseC: 2 }]), bad: (x) => calc.riseTrend([{ takenOn: '2026-01-01', riseC: x }]), values: [Number.NaN, Number.POSITIVE_INFINITY] },
   { fn: 'displayTemp', what: 'temperature', valid: () => calc.displayTemp(20, 'F', 'absolute'), bad: (x) => calc.displayTemp(x, 'F', 'absolute'), values: [Number.NaN, Number.POSITIVE_INFINITY] },
   { fn: 'toCelsius', what: 'temperature', valid: () => calc.toCelsius(68, 'F', 'absolute'), bad: (x) => calc.toCelsius(x, 'F', 'absolute'), values: [Number.NaN, Number.POSITIVE_INFINITY] },
+  { fn: 'bandPlot', what: 'a test’s multiple', valid: () => calc.bandPlot({ points: [{ multiple: 2, minS: 1, maxS: 10 }, { multiple: 3, minS: 0.5, maxS: 5 }], tests: [{ multiple: 2, seconds: 3, label: '' }] }), bad: (x) => calc.bandPlot({ points: [{ multiple: 2, minS: 1, maxS: 10 }, { multiple: 3, minS: 0.5, maxS: 5 }], tests: [{ multiple: x, seconds: 3, label: '' }] }) },
 ];
 
 describe('bad numbers are refused with a RangeError (DEVELOPERS.md "Bad input"; our convention)', () => {
