@@ -34,7 +34,7 @@ import { readConfig } from '../server/config';
 import { makeDataSource } from '../server/data-source';
 import { Circuit } from '../server/entities';
 import { logger } from '../server/logger';
-import * as sync from '../server/services/sync';
+import * as sync from '../server/sync/push';
 import { benchOfflineOpen } from './bench-offline-open';
 import { firstLoadBytes, helloWorld, listen, postRaw, requestsPerSecond, signInCookie } from './bench-transfer';
 

@@ -35,6 +35,10 @@ export const ACTIONS = [
   /** the organisation's time-current band library */
   'band.edit',
   'settings.edit',
+  /** members, roles, invitations and owner grants of an organisation */
+  'people.manage',
+  /** e-mail an inspection report to the building's owners */
+  'report.send',
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -67,6 +71,8 @@ const WHO: Record<Action, readonly Role[]> = {
   'comment.add': EVERYONE,
   'band.edit': FIELD_WORKERS,
   'settings.edit': ['admin'],
+  'people.manage': ['admin'],
+  'report.send': RAISERS,
 };
 
 /** What a rule may depend on besides the role. */

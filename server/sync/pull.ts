@@ -24,10 +24,10 @@ import {
   User,
 } from '../entities';
 import type { SyncColumns } from '../entities/sync-columns';
-import { selectRows } from './bulk';
-import { serverStamp } from './clock';
-import * as register from './register';
-import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from './serialise';
+import { selectRows } from '../services/bulk';
+import { serverStamp } from '../services/clock';
+import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from '../services/serialise';
+import { panelCounts } from './reads';
 
 /**
  * `POST /api/sync/pull` (SYNC.md): one REPEATABLE READ transaction, so a building's version and
@@ -219,7 +219,7 @@ async function buildingPage(em: EntityManager, actor: Actor, input: PageInput, b
     remaining = Number(n);
     if (remaining === 0) toVersion = version;
   }
-  const counts = await register.panelCounts(em, [building.id]);
+  const counts = await panelCounts(em, [building.id]);
   const role = roleForBuilding(actor, building)!;
   const out: BuildingPage = {
     ...emptyPage(building.id, toVersion, remaining > 0, remaining > 0 ? token : undefined),
