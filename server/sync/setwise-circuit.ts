@@ -61,7 +61,7 @@ interface SetwiseDecision {
 
 /**
  * The last-writer-wins merge of a batch of free-field circuit patches as ONE statement: the writes
- * travel as a jsonb recordset, each is compared with the stored field's stamp in SQL (text order
+ * travel as typed arrays to unnest, each is compared with the stored field's stamp in SQL (text order
  * under COLLATE "C", as in JavaScript), the winners are written with their stamps, and the
  * decisions that may hold a conflict (or a missing or deleted row) come back with the stored stamp
  * and the old value. The same rule in shared/merge.ts then turns those into outcomes and conflicts
@@ -84,8 +84,9 @@ export async function mergeCircuitPatchesSetwise(
     if (!column || typeof column.type !== 'string') throw new Error(`no typed column for ${f}`);
     return column;
   });
-  // parameters: $1 writes, $2 circuit ids, $3 device, $4 user, then one per field name
-  const name = (i: number) => `$${5 + i}::text`;
+  // parameters: $1–$8 the writes as typed arrays (one element per field write), $9 circuit ids,
+  // $10 device, $11 user, then one per field name
+  const name = (i: number) => `$${12 + i}::text`;
   const pick = columns.map((c) => `"${c.databaseName}"`).join(', ');
   const whens = columns.map((c, i) => `WHEN ${name(i)} THEN to_jsonb(cur."${c.databaseName}")`);
   const oldValue = `CASE w.f ${whens.join(' ')} END`;
@@ -98,11 +99,13 @@ export async function mergeCircuitPatchesSetwise(
     .join(',\n           ');
   const sql = `
     WITH w AS (
-      SELECT * FROM jsonb_to_recordset($1::jsonb)
-                 AS w(k int, id uuid, b uuid, f text, v jsonb, h text, ver bigint, bv bigint)
+      -- a value's type differs by field, so it travels as its JSON text, parsed once here
+      SELECT k, id, b, f, v::jsonb AS v, h, ver, bv
+        FROM unnest($1::int[], $2::uuid[], $3::uuid[], $4::text[], $5::text[], $6::text[], $7::bigint[], $8::bigint[])
+                 AS w(k, id, b, f, v, h, ver, bv)
     ), cur AS (
       SELECT id, building_id, deleted_at, updated_at, updated_by, field_meta, ${pick}
-        FROM circuit WHERE id = ANY($2::uuid[])
+        FROM circuit WHERE id = ANY($9::uuid[])
     ), d AS (
       SELECT w.k, w.f, w.id, w.h, w.ver, w.v, w.bv,
              cur.id IS NOT NULL AND cur.building_id = w.b AS found,
@@ -117,7 +120,7 @@ export async function mergeCircuitPatchesSetwise(
     ), a AS (
       SELECT id, max(ver) AS ver,
              jsonb_object_agg(f, v) FILTER (WHERE wins) AS vals,
-             jsonb_object_agg(f, jsonb_build_object('hlc', h, 'version', ver, 'device', $3::text, 'user', $4::text))
+             jsonb_object_agg(f, jsonb_build_object('hlc', h, 'version', ver, 'device', $10::text, 'user', $11::text))
                FILTER (WHERE wins) AS stamps,
              max(h COLLATE "C") FILTER (WHERE wins) AS last_hlc
         FROM d WHERE found AND deleted_at IS NULL GROUP BY id
@@ -127,7 +130,7 @@ export async function mergeCircuitPatchesSetwise(
              field_meta = t.field_meta || COALESCE(a.stamps, '{}'::jsonb),
              version = a.ver,
              updated_at = CASE WHEN a.last_hlc > (t.updated_at COLLATE "C") THEN a.last_hlc ELSE t.updated_at END,
-             updated_by = CASE WHEN a.last_hlc IS NULL THEN t.updated_by ELSE $4::uuid END
+             updated_by = CASE WHEN a.last_hlc IS NULL THEN t.updated_by ELSE $11::uuid END
         FROM a WHERE t.id = a.id
       RETURNING t.id
     )
@@ -135,24 +138,22 @@ export async function mergeCircuitPatchesSetwise(
     -- another device that this write either overwrote unseen or lost to (shared/merge.ts decides)
     SELECT k, f, found, deleted_at, stored, deletion, row_updated_at, row_updated_by, old, wins FROM d
      WHERE NOT found OR deleted_at IS NOT NULL
-        OR (stored IS NOT NULL AND stored ->> 'device' <> $3::text
+        OR (stored IS NOT NULL AND stored ->> 'device' <> $10::text
             AND ((wins AND (stored ->> 'version')::bigint > bv) OR (NOT wins AND h <> stored ->> 'hlc')))`;
   const writes = items.flatMap((item, k) =>
-    Object.entries(item.patch as Record<string, unknown>)
+    Object.entries(item.patch)
       .filter(([, v]) => v !== undefined)
-      .map(([f, v]) => ({
-        k,
-        id: item.id,
-        b: item.w.sync!.buildingId,
-        f,
-        v,
-        h: item.w.hlc,
-        ver: versions.peek(item.w.sync!.buildingId),
-        bv: item.w.sync!.baseVersion,
-      })),
+      .map(([f, v]) => ({ k, item, f, v })),
   );
   const decisions: SetwiseDecision[] = await em.query(sql, [
-    JSON.stringify(writes),
+    writes.map((x) => x.k),
+    writes.map((x) => x.item.id),
+    writes.map((x) => x.item.w.sync!.buildingId),
+    writes.map((x) => x.f),
+    writes.map((x) => JSON.stringify(x.v)),
+    writes.map((x) => x.item.w.hlc),
+    writes.map((x) => versions.peek(x.item.w.sync!.buildingId)),
+    writes.map((x) => x.item.w.sync!.baseVersion),
     items.map((i) => i.id),
     device,
     actor.userId,
