@@ -50,7 +50,7 @@ export interface UnitDecision {
   /** field names of the unit: one field, or every member of a group */
   fields: string[];
   outcome: MergeOutcome;
-  /** the stamp the write was compared against (undefined when the field was never stamped) */
+  /** the stamp the write was compared against (undefined for a field not stamped yet) */
   stored: FieldStamp | undefined;
   /** the stored write happened after the writer's base version, on another device */
   concurrent: boolean;
