@@ -213,6 +213,9 @@ async function main() {
       description: `Seen again in round ${round}`,
     }));
     const deficiencyMs = median(deficiencyRounds);
+    // gone again before the pulls below, whose figures are of the register alone as before
+    await ds.query('DELETE FROM deficiency_entry WHERE building_id = $1', [buildingId]);
+    await ds.query('DELETE FROM deficiency WHERE building_id = $1', [buildingId]);
 
     const repo = ds.getRepository(Circuit);
     const rows = new Map((await repo.find({ where: { buildingId } })).map((c) => [c.id, c]));
