@@ -46,7 +46,7 @@ import { pullPages } from './pull';
  * rolled back and planned again, and on a database error it is replayed one mutation per
  * savepoint.
  *
- * Pull: server/services/pull.ts (one REPEATABLE READ transaction, pages cut by row).
+ * Pull: server/sync/pull.ts (one REPEATABLE READ transaction, pages cut by row).
  */
 
 class Push {
