@@ -5,7 +5,10 @@
  * with `source scripts/lib.sh && pg_up dev 54329`), it generates a building of 100 panels × 42
  * positions in a throwaway organisation with its own electrician, then prints:
  *   (a) 5 000 circuit patches pushed in batches of 500 through the push service, against the same
- *       5 000 changes applied by one TypeORM `save` per row (goal: push ≥ 20× faster);
+ *       5 000 changes applied by one TypeORM `save` per row (goal: push ≥ 20× faster) and by one
+ *       raw `UPDATE … FROM unnest` per batch of the same values and stamps, the floor (goal: push
+ *       within 4× of it); then 5 000 deficiency patches pushed the same way (goal: within 2× of
+ *       the circuit patches);
  *   (b) a full pull of the building: time and gzip size (goal < 500 ms, < 400 KB);
  *   (c) a delta pull after one change (goal < 30 ms);
  *   (d) in headless Chromium against the web build in dist/, served in-process: the time from a
@@ -17,6 +20,7 @@
  *       of all pages (goal < 250 KB) and the largest page's JSON (goal < 1 MB);
  *   (g) requests per second of `GET /api/panels/:id` (42 circuits, a browser's Accept-Encoding)
  *       against a bare Express hello-world in the same run, both under autocannon.
+ * BENCH_SYNC_ONLY=push stops after (a) (no web build or browser needed).
  * Everything it made is deleted at the end. Times are wall-clock on the service functions (what a
  * request adds on top is session lookup and JSON parsing).
  */
@@ -34,7 +38,7 @@ import { readConfig } from '../server/config';
 import { makeDataSource } from '../server/data-source';
 import { Circuit } from '../server/entities';
 import { logger } from '../server/logger';
-import * as sync from '../server/services/sync';
+import * as sync from '../server/sync/push';
 import { benchOfflineOpen } from './bench-offline-open';
 import { firstLoadBytes, helloWorld, listen, postRaw, requestsPerSecond, signInCookie } from './bench-transfer';
 
@@ -44,6 +48,7 @@ const POSITIONS = 42;
 const PATCHES = 5000;
 const BATCH = 500;
 const PUSH_ROUNDS = 3;
+const DEFICIENCIES = 5000;
 
 const CIRCUIT_FIELDS = [
   'position', 'poles', 'ratingA', 'breakerType', 'description', 'loadKind', 'loadVA', 'continuous',
@@ -89,7 +94,8 @@ async function main() {
       `INSERT INTO app_user (id, email, name, password_hash) VALUES ($1, $2, 'Bench Electrician', $3)`,
       [userId, `${deviceId}@bench.invalid`, await bcrypt.hash(password, 4)],
     );
-    await ds.query(`INSERT INTO membership (id, user_id, organisation_id, role) VALUES ($1, $2, $3, 'electrician')`, [
+    // an admin: edits schedules and deficiencies alike (shared/permissions.ts)
+    await ds.query(`INSERT INTO membership (id, user_id, organisation_id, role) VALUES ($1, $2, $3, 'admin')`, [
       uuidv7(),
       userId,
       organisationId,
@@ -122,36 +128,94 @@ async function main() {
     const actor = await loadActor(ds.manager, userId);
     const version = async () => Number((await ds.query('SELECT version FROM building WHERE id = $1', [buildingId]))[0].version);
 
-    // ---------- (a) push vs one save per row ----------
+    // ---------- (a) push vs one save per row, vs the raw unnest floor, deficiencies vs circuits ----------
     // three rounds of the same 5 000 changes (fresh mutation ids and stamps each time): a shared
     // machine is noisy, and the median of three says more than one run
-    const pushRounds: number[] = [];
-    for (let round = 0; round < PUSH_ROUNDS; round++) {
-      const baseVersion = await version();
-      const patches: Mutation[] = [];
-      for (let i = 0; i < PATCHES; i++) {
-        patches.push({
-          id: uuidv7(),
-          name: 'circuit.patch',
-          buildingId,
-          entityId: circuitIds[i % circuitIds.length],
-          baseVersion,
-          hlc: stamp(),
-          fields: { description: `Pushed change ${round}.${i}`, loadVA: 100 + (i % 900) },
-        });
-      }
-      const run = await timed(async () => {
-        const statuses = new Map<string, number>();
-        for (let i = 0; i < patches.length; i += BATCH) {
-          const body = await sync.push(ds, actor, { deviceId, schemaVersion: SCHEMA_VERSION, mutations: patches.slice(i, i + BATCH) });
-          for (const r of body.results) statuses.set(r.status, (statuses.get(r.status) ?? 0) + 1);
+    const pushRuns = async (
+      name: 'circuit.patch' | 'deficiency.patch',
+      ids: string[],
+      fields: (round: number, i: number) => Record<string, unknown>,
+    ) => {
+      const rounds: number[] = [];
+      for (let round = 0; round < PUSH_ROUNDS; round++) {
+        const baseVersion = await version();
+        const patches: Mutation[] = [];
+        for (let i = 0; i < PATCHES; i++) {
+          patches.push({ id: uuidv7(), name, buildingId, entityId: ids[i % ids.length], baseVersion, hlc: stamp(), fields: fields(round, i) });
         }
-        return statuses;
-      });
-      if (run.value.get('applied') !== PATCHES) throw new Error(`push results: ${JSON.stringify([...run.value])}`);
-      pushRounds.push(run.ms);
-    }
+        const run = await timed(async () => {
+          const statuses = new Map<string, number>();
+          for (let i = 0; i < patches.length; i += BATCH) {
+            const body = await sync.push(ds, actor, { deviceId, schemaVersion: SCHEMA_VERSION, mutations: patches.slice(i, i + BATCH) });
+            for (const r of body.results) statuses.set(r.status, (statuses.get(r.status) ?? 0) + 1);
+          }
+          return statuses;
+        });
+        if (run.value.get('applied') !== PATCHES) throw new Error(`${name} push results: ${JSON.stringify([...run.value])}`);
+        rounds.push(run.ms);
+      }
+      return rounds;
+    };
+    const pushRounds = await pushRuns('circuit.patch', circuitIds, (round, i) => ({
+      description: `Pushed change ${round}.${i}`,
+      loadVA: 100 + (i % 900),
+    }));
     const pushMs = median(pushRounds);
+
+    // the floor: the same values with their per-field stamps, written by one raw UPDATE … FROM
+    // unnest per batch of 500 (what the push must do at least, without any of its checks)
+    const rawRounds: number[] = [];
+    for (let round = 0; round < PUSH_ROUNDS; round++) {
+      const ver = await version();
+      const run = await timed(async () => {
+        for (let i = 0; i < PATCHES; i += BATCH) {
+          const batch = Array.from({ length: Math.min(BATCH, PATCHES - i) }, (_, k) => i + k);
+          const hlcs = batch.map(() => stamp());
+          const metas = hlcs.map((h) => JSON.stringify({
+            description: { hlc: h, version: ver, device: deviceId, user: userId },
+            loadVA: { hlc: h, version: ver, device: deviceId, user: userId },
+          }));
+          await ds.query(
+            `UPDATE circuit AS t SET description = v.d, load_va = v.l, field_meta = t.field_meta || v.m::jsonb,
+                    version = $6, updated_at = v.h, updated_by = $7
+               FROM unnest($1::uuid[], $2::text[], $3::integer[], $4::text[], $5::text[]) AS v(id, d, l, m, h)
+              WHERE t.id = v.id`,
+            [
+              batch.map((n) => circuitIds[n % circuitIds.length]),
+              batch.map((n) => `Raw change ${round}.${n}`),
+              batch.map((n) => 300 + (n % 900)),
+              metas,
+              hlcs,
+              ver,
+              userId,
+            ],
+          );
+        }
+      });
+      rawRounds.push(run.ms);
+    }
+    const rawMs = median(rawRounds);
+
+    // deficiencies of the building, one per circuit up to 5 000, by direct insert
+    const deficiencyIds: string[] = (
+      await ds.query(
+        `INSERT INTO deficiency (id, building_id, panel_id, circuit_id, source, title, priority, due_on, status,
+                                 updated_at, version, field_meta)
+         SELECT gen_random_uuid(), $1, c.panel_id, c.id, 'manual', 'Bench finding ' || c.position, 3, '2027-01-01', 'open',
+                $2, 1, '{}'::jsonb
+           FROM circuit c WHERE c.building_id = $1 LIMIT ${DEFICIENCIES}
+         RETURNING id`,
+        [buildingId, seedStamp],
+      )
+    ).map((r: { id: string }) => r.id);
+    const deficiencyRounds = await pushRuns('deficiency.patch', deficiencyIds, (round, i) => ({
+      title: `Finding ${round}.${i}`,
+      description: `Seen again in round ${round}`,
+    }));
+    const deficiencyMs = median(deficiencyRounds);
+    // gone again before the pulls below, whose figures are of the register alone as before
+    await ds.query('DELETE FROM deficiency_entry WHERE building_id = $1', [buildingId]);
+    await ds.query('DELETE FROM deficiency WHERE building_id = $1', [buildingId]);
 
     const repo = ds.getRepository(Circuit);
     const rows = new Map((await repo.find({ where: { buildingId } })).map((c) => [c.id, c]));
@@ -179,6 +243,13 @@ async function main() {
     report(`    one TypeORM save per row (one transaction)`, `${saveInOneTx.ms.toFixed(0)} ms`);
     report('    push faster than save per row', `${ratio.toFixed(1)}×`, { ok: ratio >= 20, text: '≥ 20×' });
     report('    push faster than save per row, one transaction', `${(saveInOneTx.ms / pushMs).toFixed(1)}×`);
+    report('    raw UPDATE … FROM unnest per batch (median)', `${rawMs.toFixed(0)} ms`);
+    report('    rounds', rawRounds.map((ms) => ms.toFixed(0)).join(' / ') + ' ms');
+    report('    push / raw unnest', `${(pushMs / rawMs).toFixed(1)}×`, { ok: pushMs <= 4 * rawMs, text: '≤ 4×' });
+    report(`    push ${PATCHES} deficiency patches (median)`, `${deficiencyMs.toFixed(0)} ms`);
+    report('    rounds', deficiencyRounds.map((ms) => ms.toFixed(0)).join(' / ') + ' ms');
+    report('    deficiency / circuit patches', `${(deficiencyMs / pushMs).toFixed(2)}×`, { ok: deficiencyMs <= 2 * pushMs, text: '≤ 2×' });
+    if (process.env.BENCH_SYNC_ONLY === 'push') return;
 
     // ---------- (b) full pull ----------
     const pullBody = { deviceId, schemaVersion: SCHEMA_VERSION, cursors: {} as Record<string, number> };
@@ -240,6 +311,8 @@ async function main() {
   } finally {
     // children first: every table here points at the building, the user or the organisation
     await ds.query('DELETE FROM conflict_log WHERE building_id = $1', [buildingId]);
+    await ds.query('DELETE FROM deficiency_entry WHERE building_id = $1', [buildingId]);
+    await ds.query('DELETE FROM deficiency WHERE building_id = $1', [buildingId]);
     await ds.query('DELETE FROM circuit WHERE building_id = $1', [buildingId]);
     await ds.query('DELETE FROM panel WHERE building_id = $1', [buildingId]);
     await ds.query('DELETE FROM building WHERE id = $1', [buildingId]);

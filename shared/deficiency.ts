@@ -8,6 +8,7 @@
  * the repair plan. Anyone who may see the building may comment.
  */
 import type { Role } from './domain';
+import { can, cannotText } from './permissions';
 import { DEFAULT_DUE_DAYS, type DeficiencyFields, type DeficiencyStatus, type Priority } from './records';
 
 export type DeficiencyAction =
@@ -23,20 +24,6 @@ export type DeficiencyAction =
   | 'undefer'
   | 'accept';
 
-const WHO: Record<DeficiencyAction, readonly Role[]> = {
-  raise: ['admin', 'inspector'],
-  edit: ['admin', 'inspector'],
-  reprioritise: ['admin', 'inspector'],
-  assign: ['admin', 'inspector', 'electrician'],
-  schedule: ['admin', 'inspector', 'electrician'],
-  repair: ['admin', 'electrician'],
-  verify: ['admin', 'inspector'],
-  reopen: ['admin', 'inspector'],
-  defer: ['owner', 'admin'],
-  undefer: ['owner', 'admin'],
-  accept: ['owner'],
-};
-
 const ACTION_WORDS: Record<DeficiencyAction, string> = {
   raise: 'raise deficiencies',
   edit: 'edit a deficiency',
@@ -51,13 +38,14 @@ const ACTION_WORDS: Record<DeficiencyAction, string> = {
   accept: 'accept a repair plan',
 };
 
+/** Who may take each step: the shared permission table (shared/permissions.ts). */
 export function may(role: Role, action: DeficiencyAction): boolean {
-  return WHO[action].includes(role);
+  return can(role, `deficiency.${action}`);
 }
 
 /** "Owners cannot verify a repair" */
 export function cannot(role: Role, action: DeficiencyAction): string {
-  return `${role[0].toUpperCase()}${role.slice(1)}s cannot ${ACTION_WORDS[action]}`;
+  return cannotText(role, ACTION_WORDS[action]);
 }
 
 const STATUS_WORD: Record<DeficiencyStatus, string> = {
@@ -120,8 +108,8 @@ export function checkDeficiencyChange(input: {
   const { role, before, after, changed } = input;
   const fields: Record<string, string> = {};
   const refuse = (action: DeficiencyAction) => ({ forbidden: cannot(role, action), fields });
-  const was = before as unknown as Record<string, unknown>;
-  const now = after as unknown as Record<string, unknown>;
+  const was: Record<string, unknown> = before;
+  const now: Record<string, unknown> = after;
   for (const field of changed) {
     if (field === 'status' || was[field] === now[field]) continue;
     const action = FIELD_ACTION[field as keyof DeficiencyFields];

@@ -50,7 +50,7 @@ export interface UnitDecision {
   /** field names of the unit: one field, or every member of a group */
   fields: string[];
   outcome: MergeOutcome;
-  /** the stamp the write was compared against (undefined when the field was never stamped) */
+  /** the stamp the write was compared against (undefined for a field not stamped yet) */
   stored: FieldStamp | undefined;
   /** the stored write happened after the writer's base version, on another device */
   concurrent: boolean;
@@ -91,13 +91,14 @@ export function unitsOf(fields: string[], groups: readonly (readonly string[])[]
  */
 export function completeGroups<F extends Record<string, unknown>>(
   fields: F,
-  row: Record<string, unknown>,
+  row: object,
   groups: readonly (readonly string[])[] = FIELD_GROUPS,
 ): F {
   const out: Record<string, unknown> = { ...fields };
+  const stored = new Map(Object.entries(row));
   for (const group of groups) {
     if (!group.some((f) => f in fields)) continue;
-    for (const f of group) if (!(f in out) && f in row) out[f] = row[f];
+    for (const f of group) if (!(f in out) && stored.has(f)) out[f] = stored.get(f);
   }
   return out as F;
 }

@@ -102,9 +102,7 @@ export type PhotoType = (typeof PHOTO_TYPES)[number];
 /** largest photo the server takes, bytes (a 2000 px JPEG is well under 1 MB) */
 export const PHOTO_MAX_BYTES = 12 * 1024 * 1024;
 
-const priority = z.union(PRIORITIES.map((p) => z.literal(p)) as never as [z.ZodLiteral<Priority>], {
-  error: 'priority: 1, 2, 3 or 4',
-});
+const priority = z.literal(PRIORITIES, { error: 'priority: 1, 2, 3 or 4' });
 
 // ---------- inspections ----------
 

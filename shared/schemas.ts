@@ -23,9 +23,7 @@ const amps = z
   .positive('must be more than 0')
   .max(6000, 'at most 6000 A');
 const literalUnion = <T extends readonly (string | number)[]>(values: T, what: string) =>
-  z.union(values.map((v) => z.literal(v)) as never as [z.ZodLiteral<T[number]>], {
-    error: `${what}: one of ${values.join(', ')}`,
-  });
+  z.literal(values, { error: `${what}: one of ${values.join(', ')}` });
 
 export const idSchema = z.uuid('must be a UUID');
 

@@ -115,7 +115,7 @@ export type Resolution = (typeof RESOLUTIONS)[number];
  * an ordinary patch with the conflict's `loserValue` as fields, followed by a `conflict.resolve`
  * with `restored_mine` (after a `*.restore` when the conflict is `edited_after_delete`).
  */
-export const MUTATION_FIELDS: Record<MutationName, z.ZodType> = {
+export const MUTATION_FIELDS = {
   'building.create': buildingCreateBody,
   'building.patch': buildingPatchBody,
   'building.delete': noFields,
@@ -146,7 +146,24 @@ export const MUTATION_FIELDS: Record<MutationName, z.ZodType> = {
   'photo.create': photoCreateBody,
   'photo.patch': photoPatchBody,
   'photo.delete': noFields,
-};
+} as const satisfies Record<MutationName, z.ZodType>;
+
+/** The checked fields of one mutation, inferred from its schema (defaults filled in). */
+export type MutationFields<N extends MutationName> = z.output<(typeof MUTATION_FIELDS)[N]>;
+/** The fields a caller sends for one mutation (defaults may be left out). */
+export type MutationInput<N extends MutationName> = z.input<(typeof MUTATION_FIELDS)[N]>;
+
+// the same table seen per name, so indexing it with a generic name keeps the name's type
+const FIELD_SCHEMAS: { [N in MutationName]: z.ZodType<MutationFields<N>> } = MUTATION_FIELDS;
+
+/** Check the fields of one mutation by its name; the result is typed for that name. */
+export function parseMutationFields<N extends MutationName>(
+  name: N,
+  input: unknown,
+): z.ZodSafeParseResult<MutationFields<N>> {
+  return FIELD_SCHEMAS[name].safeParse(input);
+}
+
 
 /** One queued change, made on the device. */
 export const mutationSchema = z.object({

@@ -1,5 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import type { Role } from '../../shared/domain';
+import { can, type Action } from '../../shared/permissions';
 import { ForbiddenError } from '../http/errors';
 
 /** Who is asking, with every organisation role and owner grant they hold. */
@@ -40,16 +41,18 @@ export function roleForBuilding(
   return role;
 }
 
-const SCHEDULE_EDITORS: readonly Role[] = ['admin', 'electrician'];
-
-/** Electricians and admins edit schedules; inspectors and owners read them. */
-export function requireScheduleEditor(role: Role): void {
-  if (SCHEDULE_EDITORS.includes(role)) return;
+/**
+ * Electricians and admins edit schedules; inspectors and owners read them (shared/permissions.ts
+ * `schedule.edit`, and `building.create` / `building.edit`, which the same roles hold).
+ */
+export function requireScheduleEditor(role: Role, action: Action = 'schedule.edit'): void {
+  if (can(role, action)) return;
   throw new ForbiddenError(
     role === 'owner' ? 'Owners cannot edit schedules' : 'Inspectors read schedules but do not edit them',
   );
 }
 
-export function requireAdmin(role: Role, what: string): void {
-  if (role !== 'admin') throw new ForbiddenError(`Only an admin can ${what}`);
+/** An action only admins hold (a building's delete and restore): "Only an admin can …". */
+export function requireAdmin(role: Role, action: Action, what: string): void {
+  if (!can(role, action)) throw new ForbiddenError(`Only an admin can ${what}`);
 }

@@ -4,7 +4,7 @@ import { MAX_PUSH_MUTATIONS, pullBody, pushEnvelope } from '../../shared/sync';
 import { requireUser } from '../auth/session';
 import { AppError } from '../http/errors';
 import { handle } from '../http/handle';
-import * as sync from '../services/sync';
+import * as sync from '../sync/push';
 
 /** Too many mutations is the one push failure the client fixes by itself: it sends smaller batches. */
 const limitMutations: RequestHandler = (req, _res, next) => {

@@ -9,6 +9,7 @@ import { In, IsNull, type DataSource, type EntityManager } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
 import { RESET_MINUTES, type PeopleResponse } from '../../shared/access';
 import type { Role } from '../../shared/domain';
+import { can } from '../../shared/permissions';
 import { roleForBuilding, type Actor } from '../auth/access';
 import { Building, Inspection, Invitation, Membership, OneTimeToken, OwnerGrant, User } from '../entities';
 import { AppError, ForbiddenError, NotFoundError } from '../http/errors';
@@ -29,7 +30,7 @@ export function hashToken(token: string): string {
 export function requireOrgAdmin(actor: Actor, organisationId: string, what: string): void {
   const role = actor.roles.get(organisationId);
   if (!role) throw new NotFoundError('Organisation');
-  if (role !== 'admin') throw new ForbiddenError(`Only an admin can ${what}`);
+  if (!can(role, 'people.manage')) throw new ForbiddenError(`Only an admin can ${what}`);
 }
 
 export async function listPeople(em: EntityManager, actor: Actor, organisationId: string): Promise<PeopleResponse> {
@@ -239,7 +240,7 @@ export async function sendReport(
   const building = await ds.manager.findOneBy(Building, { id: inspection.buildingId, deletedAt: IsNull() });
   const role = building ? roleForBuilding(actor, building) : null;
   if (!building || !role) throw new NotFoundError('Inspection');
-  if (role !== 'admin' && role !== 'inspector') throw new ForbiddenError('Only an admin or an inspector can send a report');
+  if (!can(role, 'report.send')) throw new ForbiddenError('Only an admin or an inspector can send a report');
 
   let recipients: string[];
   if (to) {

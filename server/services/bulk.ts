@@ -1,8 +1,7 @@
 import type { EntityManager, EntityTarget, ObjectLiteral } from 'typeorm';
 import type { ColumnMetadata } from 'typeorm/metadata/ColumnMetadata';
 
-// PostgreSQL parses one big jsonb parameter fast; chunks keep a cascade over a huge building from
-// building one string of tens of megabytes
+// chunks keep a cascade over a huge building from building parameters of tens of megabytes
 const CHUNK_ROWS = 1000;
 
 function sqlType(column: ColumnMetadata): string {
@@ -12,9 +11,67 @@ function sqlType(column: ColumnMetadata): string {
 }
 
 /**
- * Write the whole of many loaded rows of one entity with one `UPDATE … FROM jsonb_to_recordset($1)`
- * per chunk: the values travel as one bound jsonb parameter, the column list comes from the entity
- * metadata. About 50× faster than one `save` per row (TOOLCHAIN.md, bulk upsert notes).
+ * One column of a set-wise write: its values travel as ONE typed array parameter to `unnest`
+ * (jsonb as text, parsed once in SQL), so PostgreSQL parses no per-row JSON records.
+ */
+interface ArrayColumn {
+  column: ColumnMetadata;
+  /** the array's SQL type */
+  param: string;
+  /** how unnest's output column is read back as the column's type */
+  read: (name: string) => string;
+  values: unknown[];
+}
+
+function arrayColumn(column: ColumnMetadata, values: unknown[]): ArrayColumn {
+  const type = sqlType(column);
+  if (type === 'jsonb') {
+    return {
+      column,
+      param: 'text[]',
+      read: (name) => `${name}::jsonb`,
+      values: values.map((v) => (v === null || v === undefined ? null : JSON.stringify(v))),
+    };
+  }
+  return { column, param: `${type}[]`, read: (name) => name, values: values.map((v) => v ?? null) };
+}
+
+/** `unnest($1::uuid[], $2::text[], …) AS v("id", "name", …)` and its parameters, numbered from `first`. */
+function unnestOf(columns: readonly ArrayColumn[], first = 1): { from: string; parameters: unknown[] } {
+  const arrays = columns.map((c, i) => `$${first + i}::${c.param}`).join(', ');
+  const names = columns.map((c) => `"${c.column.databaseName}"`).join(', ');
+  return { from: `unnest(${arrays}) AS v(${names})`, parameters: columns.map((c) => c.values) };
+}
+
+const value = (row: ObjectLiteral, c: ColumnMetadata): unknown => c.getEntityValue(row);
+
+/**
+ * Insert many rows of one entity with one `INSERT … SELECT FROM unnest(typed arrays)` per chunk.
+ * A column no row sets is left to its default; otherwise an unset value is NULL.
+ */
+export async function insertRows<T extends ObjectLiteral>(
+  em: EntityManager,
+  target: EntityTarget<T>,
+  rows: readonly T[],
+): Promise<void> {
+  if (rows.length === 0) return;
+  const meta = em.connection.getMetadata(target);
+  for (let i = 0; i < rows.length; i += CHUNK_ROWS) {
+    const chunk = rows.slice(i, i + CHUNK_ROWS);
+    const columns = meta.columns
+      .filter((c) => chunk.some((row) => value(row, c) !== undefined))
+      .map((c) => arrayColumn(c, chunk.map((row) => value(row, c))));
+    const { from, parameters } = unnestOf(columns);
+    const list = columns.map((c) => `"${c.column.databaseName}"`).join(', ');
+    const read = columns.map((c) => c.read(`v."${c.column.databaseName}"`)).join(', ');
+    await em.query(`INSERT INTO "${meta.tableName}" (${list}) SELECT ${read} FROM ${from}`, parameters);
+  }
+}
+
+/**
+ * Write the whole of many loaded rows of one entity with one `UPDATE … FROM unnest(typed arrays)`
+ * per chunk; the column list comes from the entity metadata. About 50× faster than one `save`
+ * per row (TOOLCHAIN.md, bulk upsert notes).
  */
 export async function updateRows<T extends ObjectLiteral>(
   em: EntityManager,
@@ -25,17 +82,19 @@ export async function updateRows<T extends ObjectLiteral>(
   const meta = em.connection.getMetadata(target);
   const [primary] = meta.primaryColumns;
   const columns = meta.columns.filter((c) => !c.isPrimary && !c.isCreateDate);
-  const all = [primary, ...columns];
-  const recordset = all.map((c) => `"${c.databaseName}" ${sqlType(c)}`).join(', ');
-  const assignments = columns.map((c) => `"${c.databaseName}" = v."${c.databaseName}"`).join(', ');
-  const sql = `UPDATE "${meta.tableName}" AS t SET ${assignments}
-                 FROM jsonb_to_recordset($1::jsonb) AS v(${recordset})
-                WHERE t."${primary.databaseName}" = v."${primary.databaseName}"`;
   for (let i = 0; i < rows.length; i += CHUNK_ROWS) {
-    const payload = rows
-      .slice(i, i + CHUNK_ROWS)
-      .map((row) => Object.fromEntries(all.map((c) => [c.databaseName, c.getEntityValue(row) ?? null])));
-    await em.query(sql, [JSON.stringify(payload)]);
+    const chunk = rows.slice(i, i + CHUNK_ROWS);
+    const arrays = [primary, ...columns].map((c) => arrayColumn(c, chunk.map((row) => value(row, c))));
+    const { from, parameters } = unnestOf(arrays);
+    const assignments = arrays
+      .slice(1)
+      .map((c) => `"${c.column.databaseName}" = ${c.read(`v."${c.column.databaseName}"`)}`)
+      .join(', ');
+    await em.query(
+      `UPDATE "${meta.tableName}" AS t SET ${assignments} FROM ${from}
+        WHERE t."${primary.databaseName}" = v."${primary.databaseName}"`,
+      parameters,
+    );
   }
 }
 
@@ -65,23 +124,26 @@ export async function updateChanged<T extends ObjectLiteral & { fieldMeta: Recor
   const wanted = new Set([...SYNC_PROPERTIES, ...changes.flatMap((c) => c.fields)]);
   const columns = meta.columns.filter((c) => !c.isPrimary && wanted.has(c.propertyName));
   const fieldMeta = meta.findColumnWithPropertyName('fieldMeta')!;
-  const all = [primary, ...columns, fieldMeta];
-  const recordset = all.map((c) => `"${c.databaseName}" ${sqlType(c)}`).join(', ');
-  const assignments = [
-    ...columns.map((c) => `"${c.databaseName}" = v."${c.databaseName}"`),
-    `"${fieldMeta.databaseName}" = t."${fieldMeta.databaseName}" || v."${fieldMeta.databaseName}"`,
-  ].join(', ');
-  const sql = `UPDATE "${meta.tableName}" AS t SET ${assignments}
-                 FROM jsonb_to_recordset($1::jsonb) AS v(${recordset})
-                WHERE t."${primary.databaseName}" = v."${primary.databaseName}"`;
   for (let i = 0; i < changes.length; i += CHUNK_ROWS) {
-    const payload = changes.slice(i, i + CHUNK_ROWS).map(({ row, fields }) => {
-      const out: Record<string, unknown> = {};
-      for (const c of [primary, ...columns]) out[c.databaseName] = c.getEntityValue(row) ?? null;
-      out[fieldMeta.databaseName] = Object.fromEntries(fields.map((f) => [f, row.fieldMeta[f]]));
-      return out;
-    });
-    await em.query(sql, [JSON.stringify(payload)]);
+    const chunk = changes.slice(i, i + CHUNK_ROWS);
+    const arrays = [
+      ...[primary, ...columns].map((c) => arrayColumn(c, chunk.map(({ row }) => value(row, c)))),
+      arrayColumn(
+        fieldMeta,
+        chunk.map(({ row, fields }) => Object.fromEntries(fields.map((f) => [f, row.fieldMeta[f]]))),
+      ),
+    ];
+    const { from, parameters } = unnestOf(arrays);
+    const metaColumn = `"${fieldMeta.databaseName}"`;
+    const assignments = [
+      ...arrays.slice(1, -1).map((c) => `"${c.column.databaseName}" = ${c.read(`v."${c.column.databaseName}"`)}`),
+      `${metaColumn} = t.${metaColumn} || v.${metaColumn}::jsonb`,
+    ].join(', ');
+    await em.query(
+      `UPDATE "${meta.tableName}" AS t SET ${assignments} FROM ${from}
+        WHERE t."${primary.databaseName}" = v."${primary.databaseName}"`,
+      parameters,
+    );
   }
 }
 

@@ -175,7 +175,7 @@ export async function uploadPhoto(
   if (thumbnail) await store.put(photoId, 'thumb', thumbnail, THUMB_TYPE);
 
   return ds.transaction(async (em) => {
-    // the building's lock first, as every writer takes it (sync.ts, register.ts): then the photo
+    // the building's lock first, as every writer takes it (server/sync: push, kinds): then the photo
     const locked: unknown[] = await em.query('SELECT id FROM building WHERE id = $1 FOR UPDATE', [photo.buildingId]);
     if (locked.length === 0) throw new NotFoundError('Photo');
     const [current]: { uploaded: boolean; version: string }[] = await em.query(

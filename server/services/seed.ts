@@ -24,6 +24,7 @@ import {
   TripEvent,
   User,
 } from '../entities';
+import { insertRows } from './bulk';
 import { serverStamp } from './clock';
 
 /** Every field of a seeded row gets the same stamp, as if one device had typed it all at once. */
@@ -121,7 +122,7 @@ async function seedRecord(
     const signed = i.signed
       ? { signedAt: day(i.daysAgo), signedBy: userIds.get(i.by)!, signedByName: nameOf(i.by) }
       : { signedAt: null, signedBy: null, signedByName: null };
-    await em.insert(Inspection, {
+    await insertRows(em, Inspection, [Object.assign(new Inspection(), {
       id,
       ...base,
       inspectorId: userIds.get(i.by)!,
@@ -131,26 +132,26 @@ async function seedRecord(
         { kind: i.kind, panelIds: [panelId], performedOn: isoDay(i.daysAgo), ambientC: i.ambientC, loadPct: i.loadPct, notes: i.notes },
         hlc,
       ),
-    } as never);
+    })]);
   }
   const readingIds = new Map<string, string>();
   for (const { inspectionKey, key, position, ...fields } of r.readings) {
     const id = uuidv7();
     readingIds.set(key, id);
-    await em.insert(Reading, {
+    await insertRows(em, Reading, [Object.assign(new Reading(), {
       id,
       ...base,
       ...stamped({ inspectionId: inspectionIds.get(inspectionKey)!, panelId, circuitId: circuitAt(position), ...fields }, hlc),
-    } as never);
+    })]);
   }
   for (const t of r.trips) {
     const occurredAt = day(t.daysAgo);
     occurredAt.setUTCHours(t.hour, 0, 0, 0);
-    await em.insert(TripEvent, {
+    await insertRows(em, TripEvent, [Object.assign(new TripEvent(), {
       id: uuidv7(),
       ...base,
       ...stamped({ panelId, circuitId: circuitAt(t.position)!, occurredAt, loadA: t.loadA, circumstances: t.circumstances }, hlc),
-    } as never);
+    })]);
   }
   const raisedDaysAgo = 20;
   for (const d of r.deficiencies) {
@@ -175,15 +176,15 @@ async function seedRecord(
       reviewOn: d.reviewInDays ? isoDay(-d.reviewInDays) : null,
       acceptedAt: null,
     };
-    await em.insert(Deficiency, {
+    await insertRows(em, Deficiency, [Object.assign(new Deficiency(), {
       id,
       ...base,
       raisedBy: userIds.get('inspector')!,
       raisedByName: nameOf('inspector'),
       ...stamped(fields, hlc),
-    } as never);
+    })]);
     const entry = (kind: 'change', text: string, changes: Record<string, [unknown, unknown]>, role: string, daysAgo: number) =>
-      em.insert(DeficiencyEntry, {
+      insertRows(em, DeficiencyEntry, [Object.assign(new DeficiencyEntry(), {
         id: uuidv7(),
         ...base,
         deficiencyId: id,
@@ -194,7 +195,7 @@ async function seedRecord(
         userName: nameOf(role),
         at: day(daysAgo),
         ...stamped({}, hlc),
-      } as never);
+      })]);
     await entry('change', 'raised', { title: [null, d.title], priority: [null, d.priority], status: [null, 'open'] }, 'inspector', raisedDaysAgo);
     if (d.status === 'scheduled') {
       await entry('change', '', { status: ['open', 'scheduled'], assigneeId: [null, fields.assigneeId] }, 'electrician', 18);

@@ -1,6 +1,6 @@
 /**
  * Rows of another organisation are never linked: a circuit's time-current band (REST and sync,
- * which share server/services/register.ts), a deficiency's assignee, a photo under a reading of a
+ * which share server/sync/kinds), a deficiency's assignee, a photo under a reading of a
  * signed inspection; the trip-test judgement never uses another organisation's band; and the
  * replay guard (processed_mutation) is keyed by user, so one account can neither read nor pre-empt
  * another's result for the same device and mutation id.

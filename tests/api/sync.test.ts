@@ -11,7 +11,7 @@ import { uuidv7 } from 'uuidv7';
 import { parseHlc } from '../../shared/hlc';
 import { SCHEMA_VERSION, type Mutation, type PullResponse, type PushResponse } from '../../shared/sync';
 import { loadActor } from '../../server/auth/access';
-import { applyPush } from '../../server/services/sync';
+import { applyPush } from '../../server/sync/push';
 import { demoIds, stamp, startApp, type TestContext } from './context';
 
 let ctx: TestContext;

@@ -6,8 +6,8 @@
  */
 import type { Readable } from 'node:stream';
 import sharp from 'sharp';
-import { In, IsNull, type DataSource } from 'typeorm';
-import { assessReading, isJudged, type Assessment } from '../../../shared/assess';
+import type { DataSource } from 'typeorm';
+import { isJudged, type Assessment } from '../../../shared/assess';
 import { PANEL_LOAD_FIGURES, SAFETY_CAUTION, panelLoad } from '../../../shared/calc';
 import { SYSTEM_INFO } from '../../../shared/domain';
 import {
@@ -16,16 +16,14 @@ import {
   STATUS_LABELS,
   THERMAL_COMPONENT_LABELS,
   VISUAL_CHECKS,
-  type ReadingFields,
 } from '../../../shared/records';
-import { roleForBuilding, type Actor } from '../../auth/access';
-import { Building, Circuit, CurveBand, Deficiency, Inspection, Panel, Photo, Reading } from '../../entities';
-import { NotFoundError } from '../../http/errors';
+import type { Actor } from '../../auth/access';
+import type { Circuit, Panel, Photo, Reading } from '../../entities';
+import { loadInspection } from '../inspection-record';
 import type { PhotoStore } from '../photo-store';
 import { COPPER, FONT, INK, PRIORITY_COLOURS, RULE, SOFT, dayOf, finish, newDocument, printable } from './fonts';
 import { slug } from './directory';
 
-const live = { deletedAt: IsNull() };
 const MARGIN = 48;
 const THUMB_PT = 110;
 
@@ -160,35 +158,8 @@ export async function inspectionReportPdf(
   actor: Actor,
   inspectionId: string,
 ): Promise<{ filename: string; pdf: Buffer }> {
-  const em = ds.manager;
-  const inspection = await em.findOne(Inspection, { where: { id: inspectionId, ...live } });
-  const building = inspection && (await em.findOne(Building, { where: { id: inspection.buildingId, ...live } }));
-  if (!inspection || !building || !roleForBuilding(actor, building)) throw new NotFoundError('Inspection');
-
-  const readings = await em.find(Reading, { where: { inspectionId: inspection.id, ...live }, order: { id: 'ASC' } });
-  const panels = inspection.panelIds.length ? await em.find(Panel, { where: { id: In(inspection.panelIds) } }) : [];
-  const panelById = new Map(panels.map((p) => [p.id, p]));
-  const allCircuits = inspection.panelIds.length
-    ? await em.find(Circuit, { where: { panelId: In(inspection.panelIds), ...live }, order: { position: 'ASC' } })
-    : [];
-  const extraIds = readings.map((r) => r.circuitId).filter((c): c is string => !!c && !allCircuits.some((x) => x.id === c));
-  const extra = extraIds.length ? await em.find(Circuit, { where: { id: In(extraIds) } }) : [];
-  const circuitById = new Map([...allCircuits, ...extra].map((c) => [c.id, c]));
-  const bandIds = [...readings.map((r) => r.bandId), ...[...circuitById.values()].map((c) => c.bandId)].filter(
-    (b): b is string => !!b,
-  );
-  // only the building's own organisation's bands: a link to another's is never printed or judged on
-  const bands = bandIds.length
-    ? await em.find(CurveBand, { where: { id: In(bandIds), organisationId: building.organisationId } })
-    : [];
-  const bandById = new Map(bands.map((b) => [b.id, b]));
-  const deficiencies = await em.find(Deficiency, {
-    where: { inspectionId: inspection.id, ...live },
-    order: { priority: 'ASC', id: 'ASC' },
-  });
-  const photos = deficiencies.length
-    ? await em.find(Photo, { where: { parentId: In(deficiencies.map((d) => d.id)), ...live }, order: { takenAt: 'ASC' } })
-    : [];
+  const record = await loadInspection(ds.manager, actor, inspectionId);
+  const { inspection, building, panels, panelById, circuitById, deficiencies, photos } = record;
 
   const kind = INSPECTION_KIND_LABELS[inspection.kind];
   const doc = newDocument({ paper: 'letter', title: `${kind} — ${building.name} — ${inspection.performedOn}`, margin: MARGIN });
@@ -215,16 +186,9 @@ export async function inspectionReportPdf(
   safetyBox(doc, width);
 
   // ---- readings
-  heading(doc, `Readings (${readings.length})`);
-  if (readings.length === 0) doc.font(FONT.text).fontSize(10).fillColor(SOFT).text('No readings were recorded.');
-  for (const r of readings) {
-    const circuit = r.circuitId ? circuitById.get(r.circuitId) : undefined;
-    const bandId = r.bandId ?? circuit?.bandId;
-    const a = assessReading(r as unknown as ReadingFields, {
-      circuit,
-      panel: panelById.get(r.panelId),
-      band: bandId ? bandById.get(bandId) : null,
-    });
+  heading(doc, `Readings (${record.readings.length})`);
+  if (record.readings.length === 0) doc.font(FONT.text).fontSize(10).fillColor(SOFT).text('No readings were recorded.');
+  for (const { reading: r, circuit, assessment: a } of record.readings) {
     keepTogether(doc, 80);
     doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(readingTitle(r, circuit, panelById.get(r.panelId)), MARGIN, doc.y, { width });
     const m = measured(r);
@@ -290,7 +254,7 @@ export async function inspectionReportPdf(
   heading(doc, 'Panel load (from the schedule on record)');
   for (const panel of panels) {
     keepTogether(doc, 70);
-    const circuits = allCircuits.filter((c) => c.panelId === panel.id);
+    const circuits = record.circuits.filter((c) => c.panelId === panel.id);
     const load = panelLoad(panel, circuits);
     const phases = Object.entries(load.phases)
       .map(([phase, p]) => `${phase} ${p.amps.toFixed(1)} A`)

@@ -1,9 +1,8 @@
-import { In, type DataSource, type EntityManager, type EntityTarget } from 'typeorm';
+import { In, type DataSource, type EntityManager } from 'typeorm';
 import {
   PULL_PAGE_BYTES,
   PULL_PAGE_ROWS,
   PULL_PAGE_ROWS_WHOLE_VERSIONS,
-  RECORD_LISTS,
   type BuildingPage,
   type PullBody,
   type PullResponse,
@@ -21,13 +20,12 @@ import {
   Photo,
   Reading,
   TripEvent,
-  User,
 } from '../entities';
 import type { SyncColumns } from '../entities/sync-columns';
-import { selectRows } from './bulk';
-import { serverStamp } from './clock';
-import * as register from './register';
-import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from './serialise';
+import { selectRows } from '../services/bulk';
+import { serverStamp } from '../services/clock';
+import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from '../services/serialise';
+import { panelCounts } from './reads';
 
 /**
  * `POST /api/sync/pull` (SYNC.md): one REPEATABLE READ transaction, so a building's version and
@@ -47,18 +45,40 @@ import { buildingDto, circuitDto, conflictDto, panelDto, recordDto } from './ser
  * after it began (the device may have got those rows live on an earlier page).
  */
 
+type List = 'panels' | 'circuits' | 'conflicts' | RecordList;
+type Names = ReadonlyMap<string, string>;
+
+/** A synced table: its list in a page, and how its rows are read and sent (as its own type). */
+interface SyncTable {
+  table: string;
+  list: List;
+  load(em: EntityManager, ids: string[], names: Names): Promise<{ row: SyncColumns; dto: object }[]>;
+}
+
+function syncTable<E extends SyncColumns>(table: string, entity: new () => E, list: List, dto: (row: E, names: Names) => object): SyncTable {
+  return {
+    table,
+    list,
+    async load(em, ids, names) {
+      const rows = await selectRows(em, entity, 'id = ANY($1::uuid[])', [ids], { without: ['fieldMeta'] });
+      return rows.map((row) => ({ row, dto: dto(row, names) }));
+    },
+  };
+}
+
 /** The synced tables in key order, with the name of their list in a page. */
-const TABLES = [
-  { table: 'panel', entity: Panel, list: 'panels' },
-  { table: 'circuit', entity: Circuit, list: 'circuits' },
-  { table: 'conflict_log', entity: ConflictLog, list: 'conflicts' },
-  { table: 'inspection', entity: Inspection, list: 'inspections' },
-  { table: 'reading', entity: Reading, list: 'readings' },
-  { table: 'deficiency', entity: Deficiency, list: 'deficiencies' },
-  { table: 'deficiency_entry', entity: DeficiencyEntry, list: 'entries' },
-  { table: 'trip_event', entity: TripEvent, list: 'trips' },
-  { table: 'photo', entity: Photo, list: 'photos' },
-] as const satisfies readonly { table: string; entity: EntityTarget<SyncColumns>; list: string }[];
+const TABLES: readonly SyncTable[] = [
+  syncTable('panel', Panel, 'panels', panelDto),
+  syncTable('circuit', Circuit, 'circuits', circuitDto),
+  syncTable('conflict_log', ConflictLog, 'conflicts', conflictDto),
+  syncTable('inspection', Inspection, 'inspections', recordDto),
+  syncTable('reading', Reading, 'readings', recordDto),
+  syncTable('deficiency', Deficiency, 'deficiencies', recordDto),
+  syncTable('deficiency_entry', DeficiencyEntry, 'entries', recordDto),
+  syncTable('trip_event', TripEvent, 'trips', recordDto),
+  syncTable('photo', Photo, 'photos', recordDto),
+];
+const CONFLICTS = TABLES.findIndex((t) => t.list === 'conflicts');
 
 /** A position in the key order: after (version, table index, id). */
 interface Key {
@@ -107,9 +127,14 @@ function countSql(): string {
   return `SELECT (${TABLES.map((_, i) => `(SELECT count(*) FROM ${TABLES[i].table} WHERE ${rangeWhere(i)})`).join(' + ')}) AS n`;
 }
 
-type Row = SyncColumns & Record<string, unknown>;
-
-const emptyLists = () => Object.fromEntries(RECORD_LISTS.map((l) => [l, []])) as unknown as Record<RecordList, never[]>;
+const emptyLists = (): Record<RecordList, never[]> => ({
+  inspections: [],
+  readings: [],
+  deficiencies: [],
+  entries: [],
+  trips: [],
+  photos: [],
+});
 
 const emptyPage = (buildingId: string, toVersion: number, hasMore: boolean, resume?: string): BuildingPage => ({
   buildingId,
@@ -122,12 +147,15 @@ const emptyPage = (buildingId: string, toVersion: number, hasMore: boolean, resu
   tombstones: { panels: [], circuits: [], ...emptyLists() },
 });
 
-async function userNames(em: EntityManager, conflicts: Row[]): Promise<Map<string, string>> {
-  const ids = [
-    ...new Set(conflicts.flatMap((c) => [c.winnerUser, c.loserUser]).filter((u): u is string => typeof u === 'string')),
-  ];
-  if (ids.length === 0) return new Map();
-  const users = await em.find(User, { where: { id: In(ids) } });
+/** The names of the people in the page's conflicts (one statement, none without conflicts). */
+async function userNames(em: EntityManager, conflictIds: string[]): Promise<Map<string, string>> {
+  if (conflictIds.length === 0) return new Map();
+  const users: { id: string; name: string }[] = await em.query(
+    `SELECT id, name FROM app_user WHERE id IN (
+       SELECT winner_user FROM conflict_log WHERE id = ANY($1::uuid[])
+       UNION SELECT loser_user FROM conflict_log WHERE id = ANY($1::uuid[]))`,
+    [conflictIds],
+  );
   return new Map(users.map((u) => [u.id, u.name]));
 }
 
@@ -170,20 +198,17 @@ async function buildingPage(em: EntityManager, actor: Actor, input: PageInput, b
   if (!complete && input.splits) keys = keys.slice(0, budget.rows);
 
   // the rows themselves, by id, per table; then in key order within the byte budget
-  const rows: { key: Key; row: Row; dto: Record<string, unknown>; bytes: number }[] = [];
+  const rows: { key: Key; row: SyncColumns; dto: object; bytes: number }[] = [];
+  const names = await userNames(em, keys.filter((k) => k.t === CONFLICTS).map((k) => k.id));
   const loaded = await Promise.all(
     TABLES.map(async (t, i) => {
       const ids = keys.filter((k) => k.t === i).map((k) => k.id);
-      if (ids.length === 0) return [] as Row[];
-      const found: unknown[] = await selectRows<SyncColumns>(em, t.entity, 'id = ANY($1::uuid[])', [ids], { without: ['fieldMeta'] });
-      return found as Row[];
+      return ids.length === 0 ? [] : t.load(em, ids, names);
     }),
   );
-  const byId = new Map(loaded.flatMap((list, i) => list.map((r) => [`${i}:${r.id}`, r] as const)));
-  const names = await userNames(em, loaded[2]);
+  const byId = new Map(loaded.flatMap((list, i) => list.map((r) => [`${i}:${r.row.id}`, r] as const)));
   for (const k of keys) {
-    const row = byId.get(`${k.t}:${k.id}`)!;
-    const dto = toDto(k.t, row, names);
+    const { row, dto } = byId.get(`${k.t}:${k.id}`)!;
     rows.push({ key: { version: Number(k.version), table: k.t, id: k.id }, row, dto, bytes: JSON.stringify(dto).length });
   }
   let kept = rows.length;
@@ -219,7 +244,7 @@ async function buildingPage(em: EntityManager, actor: Actor, input: PageInput, b
     remaining = Number(n);
     if (remaining === 0) toVersion = version;
   }
-  const counts = await register.panelCounts(em, [building.id]);
+  const counts = await panelCounts(em, [building.id]);
   const role = roleForBuilding(actor, building)!;
   const out: BuildingPage = {
     ...emptyPage(building.id, toVersion, remaining > 0, remaining > 0 ? token : undefined),
@@ -234,19 +259,6 @@ async function buildingPage(em: EntityManager, actor: Actor, input: PageInput, b
     else (out.upserts[list] as unknown[]).push(dto);
   }
   return out;
-}
-
-function toDto(table: number, row: Row, names: ReadonlyMap<string, string>): Record<string, unknown> {
-  switch (TABLES[table].list) {
-    case 'panels':
-      return panelDto(row as unknown as Panel) as unknown as Record<string, unknown>;
-    case 'circuits':
-      return circuitDto(row as unknown as Circuit) as unknown as Record<string, unknown>;
-    case 'conflicts':
-      return conflictDto(row as unknown as ConflictLog, names) as unknown as Record<string, unknown>;
-    default:
-      return recordDto(row);
-  }
 }
 
 /**

@@ -1,23 +1,36 @@
 /**
- * What a condition-record row may link to (server/services/records.ts): rows of the same building,
+ * What a condition-record row may link to (record.ts and its kinds): rows of the same building,
  * bands and people of the building's own organisation, never another organisation's; and the
  * sign-off freeze, which covers an inspection, its readings and the readings' photos.
  */
-import { IsNull } from 'typeorm';
-import type { Role } from '../../shared/domain';
-import { type Building, Circuit, CurveBand, Deficiency, Inspection, Membership, Panel, Reading } from '../entities';
-import { AppError, ValidationError } from '../http/errors';
-import type { WriteContext } from './register';
+import type { Role } from '../../../shared/domain';
+import { Circuit, CurveBand, Deficiency, Inspection, Membership, Panel, Reading, User } from '../../entities';
+import { AppError, ValidationError } from '../../http/errors';
+import { live } from '../access';
+import type { WriteContext } from '../context';
 
 /** What a kind's rules see of one write. */
 export interface Ctx {
   w: WriteContext;
-  building: Building;
+  building: { id: string; organisationId: string };
   role: Role;
   version: number;
+  /** lookups already made in this run of writes (a run of 500 patches asks once) */
+  memo: Map<string, Promise<unknown>>;
 }
 
-const live = { deletedAt: IsNull() };
+/** Ask once per run: the answer of an earlier write of the run, or a new lookup. */
+export function remember<T>(c: Ctx, key: string, lookup: () => Promise<T>): Promise<T> {
+  const known = c.memo.get(key);
+  if (known) return known as Promise<T>;
+  const asked = lookup();
+  c.memo.set(key, asked);
+  return asked;
+}
+
+export function userName(c: Ctx, id: string): Promise<string> {
+  return remember(c, `user:${id}`, async () => (await c.w.em.findOne(User, { where: { id } }))?.name ?? '');
+}
 
 export async function panelOf(c: Ctx, id: string, field = 'panelId'): Promise<Panel> {
   const panel = await c.w.em.findOne(Panel, { where: { id, buildingId: c.building.id, ...live } });
@@ -51,7 +64,11 @@ export function frozen(): AppError {
 }
 
 export async function openInspection(c: Ctx, id: string): Promise<Inspection> {
-  const inspection = await c.w.em.findOne(Inspection, { where: { id, buildingId: c.building.id, ...live } });
+  // a run of writes holds the building's lock, and a signature is its own mutation name, so an
+  // inspection looked up once stays as it was for the rest of the run
+  const inspection = await remember(c, `inspection:${id}`, () =>
+    c.w.em.findOne(Inspection, { where: { id, buildingId: c.building.id, ...live } }),
+  );
   if (!inspection) throw new ValidationError({ inspectionId: 'no such inspection in this building' });
   if (inspection.signedAt) throw frozen();
   return inspection;

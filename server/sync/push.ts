@@ -1,24 +1,24 @@
 import type { DataSource, EntityManager } from 'typeorm';
-import { formatHlc, parseHlc } from '../../shared/hlc';
-import { fieldErrors, type CircuitPatchBody } from '../../shared/schemas';
-import {
-  MUTATION_FIELDS,
-  SCHEMA_VERSION,
-  mutationSchema,
-  type Mutation,
-  type MutationResult,
-  type PullBody,
-  type PullResponse,
-  type PushResponse,
-  type Resolution,
-} from '../../shared/sync';
+import type { Mutation, MutationName, MutationResult, PullBody, PullResponse, PushResponse } from '../../shared/sync';
 import type { Actor } from '../auth/access';
 import { AppError } from '../http/errors';
 import { logger } from '../logger';
-import { observeStamp, serverStamp } from './clock';
+import { observeStamp, serverStamp } from '../services/clock';
+import { VersionBook, writeContext, type WriteContext } from './context';
+import {
+  isDeterministicDbError,
+  prepare,
+  rejection,
+  requireSchemaVersion,
+  stampFor,
+  type Checked,
+  type Prepared,
+  type PushInput,
+  type StoredResult,
+} from './envelope';
+import { MUTATION_HANDLERS, PATCH_PLANNERS, plansRuns } from './kinds';
+import type { PatchItem, PatchPlan } from './kinds/types';
 import { pullPages } from './pull';
-import { applyRecordMutation } from './records';
-import * as register from './register';
 
 /**
  * The server side of offline sync (SYNC.md).
@@ -31,103 +31,29 @@ import * as register from './register';
  * statement claims its id in processed_mutation (ON CONFLICT DO NOTHING RETURNING; nothing
  * returned means a replay, answered from the record as `duplicate`).
  *
- * Runs of consecutive `circuit.patch` mutations (the bulk of field work) are one batch in one
- * savepoint, with a constant number of statements however long the run:
+ * Runs of consecutive patches of one kind (`circuit.patch`, `deficiency.patch`, …: the names
+ * with a planner in kinds/index.ts PATCH_PLANNERS) are one batch in one savepoint, with a
+ * constant number of statements however long the run:
  * - patches of free fields only (description, notes, load …: no rule ties them to other fields),
- *   one per circuit, are merged inside one UPDATE statement (register.mergeCircuitPatchesSetwise),
+ *   one per circuit, are merged inside one UPDATE statement (setwise-circuit.ts),
  *   which hands back every field decision with the stored stamp and old value, so conflicts and
  *   per-mutation results come from the same shared/merge.ts rule;
  * - any other run is read under the building locks and merged and validated in memory, in order,
- *   then written with one UPDATE (register.planCircuitPatches).
+ *   then written with one UPDATE … FROM unnest (kinds/circuit-batch.ts, kinds/record.ts).
  * Either way one statement then claims all the run's ids with their results. Same per-mutation
  * results, idempotency and conflicts as the one-by-one path; if a claim is lost (only possible for
  * an id reused across buildings, since pushes to one building queue on its lock) the batch is
  * rolled back and planned again, and on a database error it is replayed one mutation per
  * savepoint.
  *
- * Pull: server/services/pull.ts (one REPEATABLE READ transaction, pages cut by row).
+ * Pull: server/sync/pull.ts (one REPEATABLE READ transaction, pages cut by row).
  */
-
-/** A stamp further ahead of the server's wall clock than this is re-stamped (SYNC.md). */
-export const MAX_CLOCK_SKEW_MS = 5 * 60 * 1000;
-
-/** The push body after the envelope check (shared/sync.ts pushEnvelope). */
-export interface PushInput {
-  deviceId: string;
-  schemaVersion: number;
-  mutations: Array<{ id: string } & Record<string, unknown>>;
-}
-
-type StoredResult = Omit<MutationResult, 'id'>;
-
-/** A mutation checked against the contract, or the reason it cannot be applied. */
-type Prepared =
-  | { id: string; ok: true; mutation: Mutation; fields: Record<string, unknown> }
-  | { id: string; ok: false; reason: string; fields?: Record<string, string>; name?: unknown };
-
-export function requireSchemaVersion(version: number): void {
-  if (version !== SCHEMA_VERSION) {
-    throw new AppError(
-      409,
-      'schema_version',
-      `This app speaks sync schema ${version}; the server speaks ${SCHEMA_VERSION}. Update the app to sync.`,
-    );
-  }
-}
-
-function zodReason(fields: Record<string, string>): string {
-  return Object.entries(fields)
-    .map(([field, message]) => (field === '_' ? message : `${field}: ${message}`))
-    .join('; ');
-}
-
-const CREATES = new Set(['building.create', 'panel.create', 'circuit.create']);
-
-/** Check one mutation and its fields; nothing here touches the database. */
-function prepare(raw: { id: string } & Record<string, unknown>, deviceId: string): Prepared {
-  const parsed = mutationSchema.safeParse(raw);
-  if (!parsed.success) {
-    const fields = fieldErrors(parsed.error);
-    return { id: raw.id, ok: false, reason: zodReason(fields), fields };
-  }
-  const mutation = parsed.data;
-  if (parseHlc(mutation.hlc).deviceId !== deviceId) {
-    const reason = 'the hlc stamp was not made by this device';
-    return { id: mutation.id, ok: false, reason, fields: { hlc: 'not this device' } };
-  }
-  let input: Record<string, unknown> = mutation.fields;
-  if (CREATES.has(mutation.name)) {
-    if (input.id !== undefined && input.id !== mutation.entityId) {
-      const reason = 'fields.id must be the entityId';
-      return { id: mutation.id, ok: false, reason, fields: { id: 'must be the entityId' } };
-    }
-    // the new row's id is the mutation's entityId, made on the device
-    input = { ...input, id: mutation.entityId };
-  }
-  const fields = MUTATION_FIELDS[mutation.name].safeParse(input);
-  if (!fields.success) {
-    const problems = fieldErrors(fields.error);
-    return { id: mutation.id, ok: false, reason: zodReason(problems), fields: problems };
-  }
-  return { id: mutation.id, ok: true, mutation, fields: fields.data as Record<string, unknown> };
-}
-
-function rejection(error: AppError): StoredResult {
-  const reason = error.fields ? zodReason(error.fields) : error.message;
-  return { status: 'rejected', version: 0, reason, ...(error.fields && { fields: error.fields }) };
-}
-
-/** SQLSTATE classes 22 (data exception) and 23 (integrity constraint): the same input fails every time. */
-function isDeterministicDbError(error: unknown): error is Error & { code: string } {
-  const code = (error as { code?: unknown })?.code;
-  return typeof code === 'string' && (code.startsWith('22') || code.startsWith('23'));
-}
 
 class Push {
   readonly results: MutationResult[] = [];
   /** answers recorded so far for this device: before this push, and by it */
   private readonly known = new Map<string, StoredResult>();
-  readonly versions: register.VersionBook;
+  readonly versions: VersionBook;
   private readonly now = Date.now();
 
   constructor(
@@ -135,33 +61,17 @@ class Push {
     private readonly actor: Actor,
     private readonly deviceId: string,
   ) {
-    this.versions = new register.VersionBook(em);
+    this.versions = new VersionBook(em);
   }
 
-  /**
-   * The stamp a mutation is applied with: its own, or the server's (keeping the device id, so stamps
-   * stay unique per device) when the device's clock runs more than MAX_CLOCK_SKEW_MS ahead.
-   */
-  private stampFor(mutation: Mutation): string {
-    const skewMs = parseHlc(mutation.hlc).wallMs - this.now;
-    if (skewMs <= MAX_CLOCK_SKEW_MS) return mutation.hlc;
-    const server = parseHlc(serverStamp());
-    const stamp = formatHlc({ ...server, deviceId: this.deviceId });
-    logger.warn(
-      { deviceId: this.deviceId, mutationId: mutation.id, skewMs, stamp: mutation.hlc, restamped: stamp },
-      'device clock ahead of the server: mutation re-stamped',
-    );
-    return stamp;
-  }
-
-  private context(mutation: Mutation): register.WriteContext {
-    return register.writeContext(this.em, this.actor, this.stampFor(mutation), this.deviceId, {
+  private context(mutation: Mutation): WriteContext {
+    return writeContext(this.em, this.actor, stampFor(mutation, this.deviceId, this.now), this.deviceId, {
       versions: this.versions,
       sync: { mutationId: mutation.id, baseVersion: mutation.baseVersion, buildingId: mutation.buildingId },
     });
   }
 
-  private finish(mutation: Mutation, w: register.WriteContext): StoredResult {
+  private finish(mutation: Mutation, w: WriteContext): StoredResult {
     observeStamp(w.hlc);
     const conflictIds = w.report.conflictIds;
     return {
@@ -188,11 +98,12 @@ class Push {
     await this.versions.lockAll(claimed, [...this.actor.roles.keys()]);
   }
 
-  /** Apply every mutation in order; runs of circuit patches as one batch. */
+  /** Apply every mutation in order; runs of patches of one kind as one batch. */
   async run(prepared: Prepared[]): Promise<void> {
     for (let i = 0; i < prepared.length; ) {
+      const name = nameOf(prepared[i]);
       let end = i;
-      while (end < prepared.length && isCircuitPatch(prepared[end])) end++;
+      while (end < prepared.length && plansRuns(name) && nameOf(prepared[end]) === name) end++;
       if (end - i >= 2) {
         await this.batch(prepared.slice(i, end));
         i = end;
@@ -256,7 +167,7 @@ class Push {
         result = { status: 'rejected', version: 0, reason: p.reason, ...(p.fields && { fields: p.fields }) };
       } else {
         const w = this.context(p.mutation);
-        await apply(w, p.mutation, p.fields);
+        await apply(w, p);
         result = this.finish(p.mutation, w);
       }
       await this.record([{ id: p.id, result }]);
@@ -304,7 +215,7 @@ class Push {
   }
 
   /**
-   * A run of circuit patches in one savepoint. Should another push claim one of its mutation ids
+   * A run of patches of one kind in one savepoint. Should another push claim one of its mutation ids
    * meanwhile (possible only for an id reused in another building, since pushes to one building
    * queue on its lock), the batch is rolled back and planned again, which then answers that one
    * as a duplicate; a database error replays the run one mutation per savepoint.
@@ -322,7 +233,7 @@ class Push {
         }
       } catch (error) {
         if (error instanceof AppError) throw error;
-        logger.warn({ err: error, mutations: run.length }, 'circuit patch batch failed: replaying one by one');
+        logger.warn({ err: error, mutations: run.length }, 'patch batch failed: replaying one by one');
         attempt = 2;
       }
       await this.em.query('ROLLBACK TO SAVEPOINT batch');
@@ -348,7 +259,8 @@ class Push {
       : new Map(ids.filter((id) => this.known.has(id)).map((id) => [id, this.known.get(id)!]));
 
     const answers: (StoredResult | null)[] = run.map(() => null);
-    const work: { index: number; mutation: Mutation; item: register.CircuitPatchItem }[] = [];
+    const work: { index: number; mutation: Mutation; item: PatchItem<Checked['fields']> }[] = [];
+    const checked: Checked[] = [];
     run.forEach((p, index) => {
       if (firstIndex.get(p.id) !== index || stored.has(p.id)) return;
       if (!p.ok) {
@@ -356,14 +268,10 @@ class Push {
         return;
       }
       const w = this.context(p.mutation);
-      const item = { w, id: p.mutation.entityId, patch: p.fields as CircuitPatchBody };
-      work.push({ index, mutation: p.mutation, item });
+      work.push({ index, mutation: p.mutation, item: { w, id: p.mutation.entityId, patch: p.fields } });
+      checked.push(p);
     });
-    const items = work.map((x) => x.item);
-    // patches of free fields only merge inside one statement; anything else is planned in memory
-    const plan: register.CircuitPatchPlan<unknown> = register.canMergeSetwise(items)
-      ? await register.mergeCircuitPatchesSetwise(items)
-      : await register.planCircuitPatches(items);
+    const plan = await planRun(checked, work.map((x) => x.item));
     plan.outcomes.forEach((outcome, k) => {
       const { index, mutation, item } = work[k];
       answers[index] = outcome.ok ? this.finish(mutation, item.w) : rejection(outcome.error);
@@ -385,64 +293,25 @@ class Push {
   }
 }
 
-function isCircuitPatch(p: Prepared): boolean {
-  return (p.ok ? p.mutation.name : p.name) === 'circuit.patch';
+/** The name a mutation stands under in a run, malformed ones included. */
+function nameOf(p: Prepared): unknown {
+  return p.name;
 }
 
-/** Route one checked mutation to the register service. */
-async function apply(w: register.WriteContext, m: Mutation, fields: Record<string, unknown>): Promise<void> {
-  const f = fields as never;
-  switch (m.name) {
-    case 'building.create':
-      await register.createBuilding(w, f);
-      return;
-    case 'building.patch':
-      await register.patchBuilding(w, m.entityId, f);
-      return;
-    case 'building.delete':
-      await register.deleteBuilding(w, m.entityId);
-      return;
-    case 'building.restore':
-      await register.restoreBuilding(w, m.entityId);
-      return;
-    case 'panel.create':
-      if (m.parentId && m.parentId !== m.buildingId) {
-        throw new AppError(400, 'invalid', 'parentId must be the building id', { parentId: 'must be the building id' });
-      }
-      await register.createPanel(w, m.buildingId, f);
-      return;
-    case 'panel.patch':
-      await register.patchPanel(w, m.entityId, f);
-      return;
-    case 'panel.delete':
-      await register.deletePanel(w, m.entityId);
-      return;
-    case 'panel.restore':
-      await register.restorePanel(w, m.entityId);
-      return;
-    case 'circuit.create':
-      if (!m.parentId) {
-        throw new AppError(400, 'invalid', 'parentId: the panel id is required', { parentId: 'the panel id is required' });
-      }
-      await register.createCircuit(w, m.parentId, f);
-      return;
-    case 'circuit.patch':
-      await register.patchCircuit(w, m.entityId, f);
-      return;
-    case 'circuit.delete':
-      await register.deleteCircuit(w, m.entityId);
-      return;
-    case 'circuit.restore':
-      await register.restoreCircuit(w, m.entityId);
-      return;
-    case 'conflict.resolve':
-      await register.resolveConflict(w, m.entityId, (fields as { resolution: Resolution }).resolution);
-      return;
-    default:
-      if (!(await applyRecordMutation(w, m.name, m.entityId, fields))) {
-        throw new AppError(400, 'invalid', `unknown mutation ${m.name}`);
-      }
-  }
+/** Route one checked mutation to its kind's handler (kinds/index.ts): no switch by kind. */
+function apply<N extends MutationName>(w: WriteContext, checked: Checked<N>): Promise<unknown> {
+  return MUTATION_HANDLERS[checked.name](w, checked.mutation, checked.fields);
+}
+
+/** Plan a run of patches with its kind's planner (every item of a run has the same name). */
+async function planRun<N extends MutationName>(
+  checked: readonly Checked<N>[],
+  items: readonly PatchItem<Checked<N>['fields']>[],
+): Promise<PatchPlan> {
+  if (checked.length === 0) return { outcomes: [], persist: async () => {} };
+  const planner = PATCH_PLANNERS[checked[0].name];
+  if (!planner) throw new Error(`no planner for ${checked[0].name}`);
+  return planner(items);
 }
 
 /**
@@ -470,7 +339,7 @@ export function push(ds: DataSource, actor: Actor, input: PushInput): Promise<Pu
 
 // ---------- pull ----------
 
-/** `POST /api/sync/pull`: pages of changes per building, cut by row (server/services/pull.ts). */
+/** `POST /api/sync/pull`: pages of changes per building, cut by row (pull.ts). */
 export async function pull(ds: DataSource, actor: Actor, body: PullBody): Promise<PullResponse> {
   requireSchemaVersion(body.schemaVersion);
   return pullPages(ds, actor, body);

@@ -1,0 +1,33 @@
+import type { Mutation, MutationFields, MutationName } from '../../../shared/sync';
+import type { AppError } from '../../http/errors';
+import type { WriteContext } from '../context';
+
+/**
+ * What a kind gives the kernel: one handler per mutation name (fields typed from the contract's
+ * schema for that name), and for patches a planner that takes a whole run of them at once.
+ */
+export type MutationHandler<N extends MutationName> = (
+  w: WriteContext,
+  m: Mutation,
+  fields: MutationFields<N>,
+) => Promise<unknown>;
+export type MutationHandlers = { [N in MutationName]: MutationHandler<N> };
+
+/** One patch of a run; every item of a run shares the em, actor and VersionBook. */
+export interface PatchItem<F> {
+  w: WriteContext;
+  id: string;
+  patch: F;
+}
+
+export type ItemOutcome<T> = { ok: true; row: T; version: number } | { ok: false; error: AppError };
+
+/** A planned run: every outcome is known (conflict ids included) before `persist` writes it. */
+export interface PatchPlan<T = unknown> {
+  outcomes: ItemOutcome<T>[];
+  persist(): Promise<void>;
+}
+
+export type PatchPlanner<N extends MutationName> = (items: readonly PatchItem<MutationFields<N>>[]) => Promise<PatchPlan>;
+/** Mutation names whose runs are planned as one batch. */
+export type PatchPlanners = { [N in MutationName]?: PatchPlanner<N> };

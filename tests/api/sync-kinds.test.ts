@@ -1,0 +1,105 @@
+/**
+ * The sync kernel's kind table and its set-wise merge of record kinds (server/sync/): every
+ * mutation name has one handler, and a run of patches of one kind costs a constant number of
+ * statements however long it is (the statement count of a push is counted on its query runner).
+ */
+import assert from 'node:assert/strict';
+import { after, before, describe, it } from 'node:test';
+import { uuidv7 } from 'uuidv7';
+import { MUTATION_NAMES, SCHEMA_VERSION, type Mutation, type PushResponse } from '../../shared/sync';
+import { loadActor, type Actor } from '../../server/auth/access';
+import { applyPush } from '../../server/sync/push';
+import { MUTATION_HANDLERS } from '../../server/sync/kinds';
+import { demoIds, stamp, startApp, type TestContext } from './context';
+
+let ctx: TestContext;
+let ids: Awaited<ReturnType<typeof demoIds>>;
+let inspector: Actor;
+
+before(async () => {
+  ctx = await startApp();
+  ids = await demoIds(ctx.ds);
+  const [row] = await ctx.ds.query(`SELECT id FROM app_user WHERE email = 'inspector@ampwright.test'`);
+  inspector = await loadActor(ctx.ds.manager, row.id);
+});
+after(() => ctx.close());
+
+function m(name: Mutation['name'], entityId: string, fields: Record<string, unknown>, baseVersion = 0): Mutation {
+  return { id: uuidv7(), name, buildingId: ids.clinicId, entityId, baseVersion, hlc: stamp('kinds'), fields };
+}
+
+/** Apply a push in its own transaction and count the statements it sent. */
+async function countedPush(mutations: Mutation[]): Promise<{ body: PushResponse; statements: number }> {
+  const runner = ctx.ds.createQueryRunner();
+  let statements = 0;
+  const query = runner.query.bind(runner);
+  runner.query = ((...args: Parameters<typeof query>) => {
+    statements++;
+    return query(...args);
+  }) as typeof runner.query;
+  try {
+    await runner.startTransaction();
+    const body = await applyPush(runner.manager, inspector, { deviceId: 'kinds', schemaVersion: SCHEMA_VERSION, mutations });
+    await runner.commitTransaction();
+    return { body, statements };
+  } catch (error) {
+    await runner.rollbackTransaction();
+    throw error;
+  } finally {
+    await runner.release();
+  }
+}
+
+async function raise(count: number): Promise<string[]> {
+  const made = Array.from({ length: count }, () => uuidv7());
+  const { body } = await countedPush(
+    made.map((id, i) => m('deficiency.create', id, { title: `Kind test ${i}`, priority: 3, panelId: ids.clinicLAId })),
+  );
+  assert.deepEqual(new Set(body.results.map((r) => r.status)), new Set(['applied']), JSON.stringify(body.results));
+  return made;
+}
+
+describe('the kind table', () => {
+  it('has exactly one handler for every mutation name of the contract', () => {
+    assert.deepEqual(Object.keys(MUTATION_HANDLERS).sort(), [...MUTATION_NAMES].sort());
+    for (const name of MUTATION_NAMES) assert.equal(typeof MUTATION_HANDLERS[name], 'function', name);
+  });
+});
+
+describe('a run of record patches merges set-wise', () => {
+  it('60 deficiency patches cost no more statements than 6, with a history line each', async () => {
+    const made = await raise(60);
+    const patches = (n: number, tag: string) =>
+      made.slice(0, n).map((id, i) => m('deficiency.patch', id, { title: `Edited ${tag} ${i}`, description: tag }));
+    const few = await countedPush(patches(6, 'few'));
+    const many = await countedPush(patches(60, 'many'));
+    for (const run of [few, many]) {
+      assert.deepEqual(new Set(run.body.results.map((r) => r.status)), new Set(['applied']), JSON.stringify(run.body.results));
+    }
+    assert.ok(many.statements <= few.statements, `60 patches took ${many.statements} statements, 6 took ${few.statements}`);
+    const rows = await ctx.ds.query(`SELECT id, title, description FROM deficiency WHERE id = ANY($1::uuid[])`, [made]);
+    assert.equal(rows.filter((r: { description: string }) => r.description === 'many').length, 60);
+    const entries = await ctx.ds.query(
+      `SELECT deficiency_id, changes FROM deficiency_entry WHERE deficiency_id = ANY($1::uuid[]) AND kind = 'change' AND text = ''`,
+      [made],
+    );
+    // one change line per patch that changed something: 6 + 60
+    assert.equal(entries.length, 66);
+    const last = entries.find((e: { changes: Record<string, unknown> }) => JSON.stringify(e.changes).includes('Edited many 0'));
+    assert.ok(last, 'the change line records the new title');
+  });
+
+  it('a rule still holds inside the run: a forbidden change is rejected, the rest applies', async () => {
+    const made = await raise(3);
+    const { body } = await countedPush([
+      m('deficiency.patch', made[0], { title: 'Still fine' }),
+      // an inspector cannot mark a repair done (shared/permissions.ts)
+      m('deficiency.patch', made[1], { status: 'repaired', repairNote: 'tightened' }),
+      m('deficiency.patch', made[2], { priority: 1, priorityReason: 'worse than it looked' }),
+    ]);
+    assert.deepEqual(body.results.map((r) => r.status), ['applied', 'rejected', 'applied']);
+    assert.match(body.results[1].reason ?? '', /Inspectors cannot mark a repair done/);
+    const [moved] = await ctx.ds.query(`SELECT priority, due_on FROM deficiency WHERE id = $1`, [made[2]]);
+    assert.equal(moved.priority, 1);
+  });
+});
