@@ -1,11 +1,11 @@
 import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/button';
-import { TextField } from '@/components/fields';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
-import { colours, radii, space } from '@/components/theme';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/fields';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
+import { colours, radii, space } from '@/components/ui/theme';
 import { useSignIn } from '@/hooks/use-session';
 import { ApiError, describeError } from '@/lib/api';
 import { fieldErrors, signInBody } from '@/shared/schemas';

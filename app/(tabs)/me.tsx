@@ -1,14 +1,14 @@
 import { useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/button';
-import { ReadOnlyField } from '@/components/fields';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
-import { colours, radii, space } from '@/components/theme';
+import { Button } from '@/components/ui/button';
+import { ReadOnlyField } from '@/components/ui/fields';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
+import { colours, radii, space } from '@/components/ui/theme';
 import { useOutbox } from '@/hooks/use-outbox';
 import { useWaitingPhotos } from '@/hooks/use-photos';
-import { OrganisationSettingsCard } from '@/components/organisation-settings';
+import { OrganisationSettingsCard } from '@/components/access/organisation-settings';
 import { useSession, useSignOut } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
 

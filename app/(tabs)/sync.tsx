@@ -1,10 +1,10 @@
 import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/button';
-import { PhotosWaiting } from '@/components/photos';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
-import { colours, radii, space } from '@/components/theme';
-import { stampTime, timeAgo } from '@/components/time-ago';
+import { Button } from '@/components/ui/button';
+import { PhotosWaiting } from '@/components/documents/photos';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
+import { colours, radii, space } from '@/components/ui/theme';
+import { stampTime, timeAgo } from '@/components/ui/time-ago';
 import { canRestore, useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
 import { useSyncReview } from '@/hooks/use-register';
 import { recordsOf, type BuildingCopy } from '@/lib/replica';

@@ -1,9 +1,9 @@
 import { useRouter } from 'expo-router';
 import { Pressable, StyleSheet, View } from 'react-native';
-import { Screen } from '@/components/screen';
-import { EmptyState, ErrorState, LoadingState } from '@/components/states';
-import { Text } from '@/components/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/theme';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
 import { useBuildings } from '@/hooks/use-register';
 
 const ROLE_LABEL = { admin: 'admin', electrician: 'electrician', inspector: 'inspector', owner: 'owner' } as const;

@@ -1,18 +1,18 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
-import { useInspectionActions } from '@/components/inspection-actions';
-import { InspectionDeficiencies } from '@/components/inspection-deficiencies';
-import { InspectionForm } from '@/components/inspection-form';
+import { useInspectionActions } from '@/components/inspections/inspection-actions';
+import { InspectionDeficiencies } from '@/components/inspections/inspection-deficiencies';
+import { InspectionForm } from '@/components/inspections/inspection-form';
 import { INSPECTION_KIND_LABELS } from '@/shared/records';
-import { InspectionHeader } from '@/components/inspection-header';
-import { InspectionPanel } from '@/components/inspection-panel';
-import { InspectionSignOff } from '@/components/inspection-signoff';
-import { ReportPdfButton, SendReportButton } from '@/components/print-button';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { replicaGate } from '@/components/states';
-import { space, WIDE_MIN_WIDTH } from '@/components/theme';
+import { InspectionHeader } from '@/components/inspections/inspection-header';
+import { InspectionPanel } from '@/components/inspections/inspection-panel';
+import { InspectionSignOff } from '@/components/inspections/inspection-signoff';
+import { ReportPdfButton, SendReportButton } from '@/components/documents/print-button';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { replicaGate } from '@/components/ui/states';
+import { space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 import { useInspection } from '@/hooks/use-records';
 
 export default function InspectionScreen() {

@@ -1,0 +1,76 @@
+/** The deficiencies raised in one inspection, each a link to its own screen. */
+import { Pressable, StyleSheet, View } from 'react-native';
+import { STATUS_LABELS, type Deficiency } from '@/shared/records';
+import type { Panel } from '@/shared/schemas';
+import { dateText } from './inspection-format';
+import { PriorityChip } from '@/components/deficiencies/priority-chip';
+import { Text } from '@/components/ui/text';
+import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+
+export function InspectionDeficiencies({
+  deficiencies,
+  panels,
+  onOpen,
+  canRaise,
+}: {
+  deficiencies: Deficiency[];
+  panels: Record<string, Panel>;
+  onOpen: (deficiency: Deficiency) => void;
+  canRaise: boolean;
+}) {
+  const sorted = [...deficiencies].sort((a, b) => a.priority - b.priority || a.id.localeCompare(b.id));
+  return (
+    <View style={styles.box} testID="inspection-deficiencies">
+      <Text variant="label" tone="soft">DEFICIENCIES RAISED IN THIS INSPECTION ({deficiencies.length})</Text>
+      {sorted.length === 0 && (
+        <Text tone="soft">
+          {canRaise
+            ? 'None yet. Tick a checklist item, or raise one from a reading that found a problem.'
+            : 'None yet. Inspectors raise deficiencies from the readings and the checklist.'}
+        </Text>
+      )}
+      {sorted.map((d) => {
+        const tag = d.panelId ? panels[d.panelId]?.tag : null;
+        return (
+          <Pressable
+            key={d.id}
+            accessibilityRole="link"
+            accessibilityLabel={`${d.title}, ${STATUS_LABELS[d.status]}, priority ${d.priority}`}
+            onPress={() => onOpen(d)}
+            style={({ pressed }) => [styles.row, pressed && styles.pressed]}
+            testID="inspection-deficiency"
+          >
+            <PriorityChip priority={d.priority} />
+            <View style={styles.text}>
+              <Text variant="strong">{d.title}</Text>
+              <Text variant="small" tone="soft">
+                {[tag ? `panel ${tag}` : null, STATUS_LABELS[d.status], d.dueOn ? `due ${dateText(d.dueOn)}` : null]
+                  .filter(Boolean)
+                  .join(' · ')}
+              </Text>
+            </View>
+            <Text tone="faint">›</Text>
+          </Pressable>
+        );
+      })}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  box: { gap: space.sm },
+  row: {
+    minHeight: MIN_TOUCH,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.sm,
+    padding: space.md,
+    backgroundColor: colours.card,
+    borderWidth: 1,
+    borderColor: colours.rule,
+    borderRadius: radii.md,
+    flexWrap: 'wrap',
+  },
+  pressed: { opacity: 0.7 },
+  text: { flex: 1, minWidth: 160, gap: 2 },
+});

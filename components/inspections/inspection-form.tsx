@@ -1,0 +1,228 @@
+/**
+ * An inspection's details: what kind, which panels, when, the ambient temperature and the load at
+ * the time (with the NFPA 70B light-load warning as soon as it applies), notes.
+ */
+import { Pressable, StyleSheet, View } from 'react-native';
+import {
+  INSPECTION_KINDS,
+  INSPECTION_KIND_LABELS,
+  inspectionCreateBody,
+  type InspectionCreateBody,
+  type InspectionKind,
+} from '@/shared/records';
+import { fieldErrors, type Panel } from '@/shared/schemas';
+import { Button } from '@/components/ui/button';
+import { ChoiceField, chipStyles, TextField } from '@/components/ui/fields';
+import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
+import { lightLoadWarning, needsLoad } from './inspection-format';
+import { Text } from '@/components/ui/text';
+import { useFormDraft } from '@/components/ui/use-form-draft';
+import { colours, radii, space } from '@/components/ui/theme';
+
+interface Draft {
+  kind: InspectionKind;
+  panelIds: string[];
+  performedOn: string;
+  ambientC: string;
+  loadPct: string;
+  notes: string;
+}
+
+const toDraft = (i: InspectionCreateBody): Draft => ({
+  kind: i.kind,
+  panelIds: i.panelIds,
+  performedOn: i.performedOn,
+  ambientC: textOf(i.ambientC),
+  loadPct: textOf(i.loadPct),
+  notes: i.notes,
+});
+
+const fromDraft = (d: Draft) => ({
+  kind: d.kind,
+  panelIds: d.panelIds,
+  performedOn: d.performedOn.trim(),
+  ambientC: numberOrNull(d.ambientC),
+  loadPct: numberOrNull(d.loadPct),
+  notes: d.notes,
+});
+
+/** The NFPA 70B light-load warning, where the load at the time is under 40 % of normal. */
+export function InspectionLoadWarning({ kind, loadPct }: { kind: InspectionKind; loadPct: number | null }) {
+  const warning = lightLoadWarning(kind, loadPct);
+  if (!warning) return null;
+  return (
+    <View style={styles.warning} accessibilityRole="alert" testID="light-load-warning">
+      <Text variant="label" tone="warn">⚠ LIGHT LOAD</Text>
+      <Text variant="small">{warning}</Text>
+    </View>
+  );
+}
+
+/** Several panels may be chosen: one for a panel inspection, many for a building round. */
+function PanelPicker({
+  panels,
+  value,
+  onChange,
+  error,
+  locked,
+}: {
+  panels: Panel[];
+  value: string[];
+  onChange: (ids: string[]) => void;
+  error?: string;
+  locked: readonly string[];
+}) {
+  const toggle = (id: string) => onChange(value.includes(id) ? value.filter((v) => v !== id) : [...value, id]);
+  const all = panels.length > 1 && value.length === panels.length;
+  const clearTo = panels.filter((p) => locked.includes(p.id)).map((p) => p.id);
+  return (
+    <View style={styles.field}>
+      <Text variant="label" tone="soft">Panels covered</Text>
+      <View style={[chipStyles.chips, styles.centred]} accessibilityRole="list" accessibilityLabel="Panels covered">
+        {panels.map((panel) => {
+          const selected = value.includes(panel.id);
+          const fixed = selected && locked.includes(panel.id);
+          return (
+            <Pressable
+              key={panel.id}
+              accessibilityRole="checkbox"
+              aria-checked={selected}
+              aria-disabled={fixed}
+              disabled={fixed}
+              accessibilityLabel={`Panel ${panel.tag}${panel.location ? `, ${panel.location}` : ''}`}
+              onPress={() => toggle(panel.id)}
+              style={[chipStyles.chip, selected && chipStyles.chipSelected]}
+              testID={`cover-panel-${panel.tag}`}
+            >
+              <Text variant="readingBold" tone={selected ? 'paper' : 'ink'}>
+                {selected ? '☑ ' : '☐ '}
+                {panel.tag}
+              </Text>
+            </Pressable>
+          );
+        })}
+        {panels.length > 1 && (
+          <Button
+            label={all ? 'Clear' : 'All panels'}
+            tone="quiet"
+            onPress={() => onChange(all ? clearTo : panels.map((p) => p.id))}
+          />
+        )}
+      </View>
+      {error ? (
+        <Text variant="small" tone="danger" accessibilityRole="alert">✕ {error}</Text>
+      ) : locked.length > 0 ? (
+        <Text variant="small" tone="faint">Panels that already have readings stay in the inspection.</Text>
+      ) : (
+        <Text variant="small" tone="faint">One panel for a panel inspection; several for a round of the building.</Text>
+      )}
+    </View>
+  );
+}
+
+export interface InspectionFormProps {
+  panels: Panel[];
+  initial: InspectionCreateBody;
+  isNew: boolean;
+  /** the whole inspection for a new one, only the changed fields for an edit */
+  onSubmit: (fields: Partial<InspectionCreateBody>) => void;
+  onCancel?: () => void;
+  /** panels with readings already: they cannot be taken out of the inspection */
+  lockedPanelIds?: readonly string[];
+}
+
+const samePanels = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((id) => b.includes(id));
+
+export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, lockedPanelIds = [] }: InspectionFormProps) {
+  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => toDraft(initial));
+  const preview = fromDraft(draft);
+  const submit = () => {
+    const parsed = inspectionCreateBody.safeParse(preview);
+    if (!parsed.success) {
+      setErrors(fieldErrors(parsed.error));
+      return;
+    }
+    setErrors({});
+    if (isNew) {
+      onSubmit(parsed.data);
+      return;
+    }
+    const { panelIds, ...rest } = changedFields(initial, parsed.data);
+    onSubmit(panelIds && !samePanels(panelIds, initial.panelIds) ? { ...rest, panelIds } : rest);
+  };
+  return (
+    <View style={styles.form}>
+      <ChoiceField
+        label="Kind of inspection"
+        choices={INSPECTION_KINDS.map((value) => ({ value, label: INSPECTION_KIND_LABELS[value] }))}
+        value={draft.kind}
+        onChange={set('kind')}
+        error={errors.kind}
+      />
+      <PanelPicker
+        panels={panels}
+        value={draft.panelIds}
+        onChange={set('panelIds')}
+        error={errors.panelIds}
+        locked={lockedPanelIds}
+      />
+      <View style={styles.row}>
+        <View style={styles.cell}>
+          <TextField
+            label="Date"
+            value={draft.performedOn}
+            onChangeText={set('performedOn')}
+            mono
+            placeholder="YYYY-MM-DD"
+            error={errors.performedOn}
+            testID="field-performed-on"
+          />
+        </View>
+        <View style={styles.cell}>
+          <TextField
+            label="Ambient (°C)"
+            value={draft.ambientC}
+            onChangeText={set('ambientC')}
+            keyboardType="numbers-and-punctuation"
+            mono
+            error={errors.ambientC}
+            testID="field-ambient"
+          />
+        </View>
+      </View>
+      <TextField
+        label="Load at the time (% of normal)"
+        value={draft.loadPct}
+        onChangeText={set('loadPct')}
+        keyboardType="decimal-pad"
+        mono
+        error={errors.loadPct}
+        hint={needsLoad(draft.kind) ? 'NFPA 70B: a thermal survey wants at least 40 % of normal load.' : undefined}
+        testID="field-load-pct"
+      />
+      <InspectionLoadWarning kind={draft.kind} loadPct={typeof preview.loadPct === 'number' ? preview.loadPct : null} />
+      <TextField label="Notes" value={draft.notes} onChangeText={set('notes')} multiline error={errors.notes} testID="field-notes" />
+      {Object.keys(errors).length > 0 && (
+        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
+      )}
+      <Button label={isNew ? 'Start inspection' : 'Save details'} onPress={submit} testID="save-inspection" />
+      {onCancel && <Button label="Cancel" tone="secondary" onPress={onCancel} />}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  centred: { alignItems: 'center' },
+  form: { gap: space.lg },
+  field: { gap: space.xs },
+  row: { flexDirection: 'row', gap: space.md },
+  cell: { flex: 1 },
+  warning: {
+    gap: space.xs,
+    padding: space.md,
+    borderRadius: radii.md,
+    borderWidth: 1,
+    borderColor: colours.warn,
+    backgroundColor: colours.warnSoft,
+  },
+});

@@ -1,0 +1,404 @@
+/**
+ * The fields of each kind of reading: a thermal reading, a torque check, a trip test by primary
+ * injection. The form (reading-form.tsx) owns the draft, the checks and the save.
+ */
+import { StyleSheet, View } from 'react-native';
+import { SYSTEM_INFO, CONDUCTOR_SIZES, conductorSizeLabel } from '@/shared/domain';
+import {
+  READING_PHASES,
+  THERMAL_COMPONENTS,
+  THERMAL_COMPONENT_LABELS,
+  TORQUE_SCREWS,
+  TORQUE_UNITS,
+  type Band,
+} from '@/shared/records';
+import type { Circuit, Panel } from '@/shared/schemas';
+import { breakerLabel } from '@/components/register/circuit-format';
+import { ChoiceField, TextField } from '@/components/ui/fields';
+import { numberOrNull } from '@/components/ui/form-values';
+import { fallbackIn, type ReadingDraft } from './reading-draft';
+import { ReadingCircuitPicker } from './reading-circuit-picker';
+import { MakerValueCheck, SCREW_HINT, SCREW_LABELS, ScrewSizeField, TestPulseField } from './reading-extras';
+import { Text } from '@/components/ui/text';
+import { colours, radii, space } from '@/components/ui/theme';
+
+export type DraftSetter = <K extends keyof ReadingDraft>(key: K) => (value: ReadingDraft[K]) => void;
+
+interface KindFieldsProps {
+  draft: ReadingDraft;
+  set: DraftSetter;
+  errors: Record<string, string>;
+  panel: Panel;
+  circuits: Circuit[];
+}
+
+function Row({ children }: { children: React.ReactNode }) {
+  return <View style={styles.row}>{children}</View>;
+}
+function Cell({ children }: { children: React.ReactNode }) {
+  return <View style={styles.cell}>{children}</View>;
+}
+
+// ---------- thermal ----------
+
+export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }: KindFieldsProps & { ambientC: number | null }) {
+  const phases = READING_PHASES.filter((p) => p !== 'C' || SYSTEM_INFO[panel.system].phases === 3);
+  const chooseBasis = (basis: ReadingDraft['referenceBasis']) => {
+    set('referenceBasis')(basis);
+    // over ambient air: the inspection already knows the air temperature
+    if (basis === 'ambient' && !draft.referenceC.trim() && ambientC !== null) set('referenceC')(String(ambientC));
+  };
+  return (
+    <>
+      <ChoiceField
+        label="Component"
+        choices={THERMAL_COMPONENTS.map((value) => ({ value, label: THERMAL_COMPONENT_LABELS[value] }))}
+        value={draft.component}
+        onChange={set('component')}
+        error={errors.component}
+      />
+      <ChoiceField
+        label="Phase"
+        choices={[{ value: null, label: 'Not recorded' }, ...phases.map((p) => ({ value: p, label: p === 'N' ? 'Neutral' : p }))]}
+        value={draft.phase}
+        onChange={set('phase')}
+        error={errors.phase}
+      />
+      <ReadingCircuitPicker
+        label="Circuit (optional)"
+        circuits={circuits}
+        value={draft.circuitId}
+        onChange={set('circuitId')}
+        noneLabel="No circuit: bus, main lugs or the enclosure"
+        error={errors.circuitId}
+        testID="field-circuit"
+      />
+      <Row>
+        <Cell>
+          <TextField
+            label="Temperature (°C)"
+            value={draft.temperatureC}
+            onChangeText={set('temperatureC')}
+            keyboardType="decimal-pad"
+            mono
+            error={errors.temperatureC}
+            testID="field-temperature"
+          />
+        </Cell>
+        <Cell>
+          <TextField
+            label="Reference (°C)"
+            value={draft.referenceC}
+            onChangeText={set('referenceC')}
+            keyboardType="decimal-pad"
+            mono
+            error={errors.referenceC}
+            testID="field-reference"
+          />
+        </Cell>
+      </Row>
+      <ChoiceField
+        label="Reference is"
+        choices={[
+          { value: 'similar' as const, label: 'A similar component' },
+          { value: 'ambient' as const, label: 'Ambient air' },
+        ]}
+        value={draft.referenceBasis}
+        onChange={chooseBasis}
+        error={errors.referenceBasis}
+        hint="NETA judges a rise over a similar component under similar load more strictly than a rise over the air."
+      />
+      <Row>
+        <Cell>
+          <TextField
+            label="Measured load (A)"
+            value={draft.loadA}
+            onChangeText={set('loadA')}
+            keyboardType="decimal-pad"
+            mono
+            error={errors.loadA}
+            testID="field-load-a"
+          />
+        </Cell>
+        <Cell>
+          <TextField
+            label="Reference load (A)"
+            value={draft.referenceLoadA}
+            onChangeText={set('referenceLoadA')}
+            keyboardType="decimal-pad"
+            mono
+            error={errors.referenceLoadA}
+            testID="field-reference-load-a"
+          />
+        </Cell>
+      </Row>
+      {!errors.loadA && !errors.referenceLoadA && (
+        <Text variant="small" tone="faint">
+          Optional, both or neither: a rise taken between 40 % and 100 % of the reference load is raised to it; one
+          taken at or above it is never lowered; under 40 % it is too lightly loaded to judge (NFPA 70B).
+        </Text>
+      )}
+      <TestPulseField value={draft.duringTestPulse} onChange={set('duringTestPulse')} />
+    </>
+  );
+}
+
+// ---------- torque ----------
+
+
+export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) {
+  const unit = draft.unit ?? 'lbf-in';
+  const table = fallbackIn(unit, draft.conductorSize, draft.screw, draft.screwSize);
+  const usesTable = draft.specSource === 'fallback-table';
+  /** under the fallback, the specified value follows the table for the size, screw and unit chosen */
+  const follow = (next: Partial<Pick<ReadingDraft, 'unit' | 'conductorSize' | 'screw' | 'screwSize' | 'specSource'>>) => {
+    const source = next.specSource ?? draft.specSource;
+    if (source !== 'fallback-table') return;
+    const value = fallbackIn(next.unit ?? unit, next.conductorSize ?? draft.conductorSize, next.screw ?? draft.screw, next.screwSize ?? draft.screwSize);
+    if (value !== null) set('specified')(String(value));
+  };
+  const chooseCircuit = (id: string | null) => {
+    set('circuitId')(id);
+    const circuit = circuits.find((c) => c.id === id);
+    // the wire on the terminal is usually the circuit's conductor
+    if (circuit?.conductorSize && !draft.conductorSize) {
+      set('conductorSize')(circuit.conductorSize);
+      follow({ conductorSize: circuit.conductorSize });
+    }
+  };
+  return (
+    <>
+      <ReadingCircuitPicker
+        label="Termination"
+        circuits={circuits}
+        value={draft.circuitId}
+        onChange={chooseCircuit}
+        noneLabel="Main lugs / main breaker"
+        error={errors.circuitId}
+        testID="field-circuit"
+      />
+      <TextField
+        label="Fastener"
+        value={draft.fastener}
+        onChangeText={set('fastener')}
+        error={errors.fastener}
+        placeholder={draft.circuitId ? 'e.g. load terminal' : 'e.g. phase B line lug'}
+        hint="Which screw or lug, so the next check finds the same one."
+        testID="field-fastener"
+      />
+      <ChoiceField
+        label="Specified value comes from"
+        choices={[
+          { value: 'maker' as const, label: 'Maker’s instructions' },
+          { value: 'fallback-table' as const, label: 'Fallback table (UL 486A-B)' },
+        ]}
+        value={draft.specSource}
+        onChange={(v) => {
+          set('specSource')(v);
+          follow({ specSource: v ?? undefined });
+        }}
+        error={errors.specSource}
+      />
+      <ChoiceField
+        label={usesTable ? 'Conductor size' : 'Conductor size (optional: checks the value against the table)'}
+        choices={CONDUCTOR_SIZES.map((s) => ({ value: s, label: conductorSizeLabel(s) }))}
+        value={draft.conductorSize}
+        onChange={(v) => {
+          set('conductorSize')(v);
+          follow({ conductorSize: v ?? undefined });
+        }}
+        error={errors.conductorSize}
+      />
+      <ChoiceField
+        label={usesTable ? 'Screw kind' : 'Screw kind (optional)'}
+        choices={TORQUE_SCREWS.map((value) => ({ value, label: SCREW_LABELS[value] }))}
+        value={draft.screw}
+        onChange={(v) => {
+          set('screw')(v);
+          follow({ screw: v ?? undefined });
+        }}
+        error={errors.screw}
+        hint={SCREW_HINT}
+      />
+      <ScrewSizeField
+        screw={draft.screw}
+        value={draft.screwSize}
+        onChange={(v) => {
+          set('screwSize')(v);
+          follow({ screwSize: v ?? undefined });
+        }}
+        error={errors.screwSize}
+      />
+      {usesTable && (
+        <View style={styles.fallback} testID="torque-fallback">
+          <Text variant="label" tone="warn">UL 486A-B FALLBACK (AS PRINTED IN NEC ANNEX I)</Text>
+          {table !== null ? (
+            <Text variant="reading">
+              {table} {unit} for {draft.conductorSize ? conductorSizeLabel(draft.conductorSize) : '?'},{' '}
+              {draft.screw ? SCREW_LABELS[draft.screw].toLowerCase() : '?'}
+            </Text>
+          ) : (
+            <Text variant="small">
+              {draft.conductorSize && draft.screw
+                ? 'The table has no value for this screw and wire size: use the maker’s value.'
+                : 'Choose the conductor size and the screw kind to fill the value from the table.'}
+            </Text>
+          )}
+          <Text variant="small">
+            The maker’s value governs wherever it is given (NEC 110.14(D)): use the table only when the equipment and its
+            instructions give none.
+          </Text>
+        </View>
+      )}
+      <ChoiceField
+        label="Unit"
+        choices={TORQUE_UNITS.map((u) => ({ value: u, label: u }))}
+        value={draft.unit}
+        onChange={(v) => {
+          set('unit')(v);
+          follow({ unit: v ?? undefined });
+        }}
+        error={errors.unit}
+      />
+      <TextField
+        label={`Specified torque (${unit})`}
+        value={draft.specified}
+        onChangeText={set('specified')}
+        keyboardType="decimal-pad"
+        mono
+        error={errors.specified}
+        hint={usesTable && table !== null ? 'Filled from the UL 486A-B table: change it only to the maker’s figure.' : undefined}
+        testID="field-specified"
+      />
+      <MakerValueCheck specified={draft.specified} unit={unit} size={draft.conductorSize} screw={draft.screw} screwSize={draft.screwSize} />
+      <ChoiceField
+        label="As found"
+        choices={[
+          { value: 'held' as const, label: 'Held at the value' },
+          { value: 'turned' as const, label: 'Turned' },
+        ]}
+        value={draft.asFound}
+        onChange={set('asFound')}
+        error={errors.asFound}
+        hint="Held: it did not move at the specified torque. Turned: it moved before reaching it."
+      />
+      <Row>
+        {draft.asFound === 'turned' && (
+          <Cell>
+            <TextField
+              label={`Turned at (${unit})`}
+              value={draft.asFoundValue}
+              onChangeText={set('asFoundValue')}
+              keyboardType="decimal-pad"
+              mono
+              error={errors.asFoundValue}
+              testID="field-as-found"
+            />
+          </Cell>
+        )}
+        <Cell>
+          <TextField
+            label={`As left (${unit})`}
+            value={draft.asLeft}
+            onChangeText={set('asLeft')}
+            keyboardType="decimal-pad"
+            mono
+            error={errors.asLeft}
+            testID="field-as-left"
+          />
+        </Cell>
+      </Row>
+    </>
+  );
+}
+
+// ---------- trip test ----------
+
+export function TripFields({ draft, set, errors, circuits, bands }: KindFieldsProps & { bands: Band[] | undefined }) {
+  const breakers = circuits.filter((c) => c.status !== 'space');
+  const circuit = breakers.find((c) => c.id === draft.circuitId) ?? null;
+  const ratingA = circuit?.ratingA ?? null;
+  const testA = numberOrNull(draft.testCurrentA);
+  const circuitBand = circuit?.bandId ? bands?.find((b) => b.id === circuit.bandId) : undefined;
+  const pct = ratingA && testA && Number.isFinite(testA) ? Math.round((100 * testA) / ratingA) : null;
+  const bandChoices = [
+    {
+      value: null,
+      label: circuitBand ? `The circuit’s band: ${circuitBand.label}` : circuit?.bandId ? 'The circuit’s band (not on this device)' : 'None: NETA 300 % fallback only',
+    },
+    ...(bands ?? [])
+      .filter((b) => b.id !== circuit?.bandId)
+      .map((b) => ({ value: b.id as string | null, label: `${b.label} (${b.ratingA} A)` })),
+  ];
+  const chosenBand = draft.bandId ? bands?.find((b) => b.id === draft.bandId) : undefined;
+  return (
+    <>
+      <ReadingCircuitPicker
+        label="Circuit tested"
+        circuits={breakers}
+        value={draft.circuitId}
+        onChange={set('circuitId')}
+        error={errors.circuitId}
+        detail={(c) => breakerLabel(c)}
+        hint={circuit ? (ratingA ? `Trip rating ${ratingA} A (${breakerLabel(circuit)})` : 'This circuit has no trip rating recorded: add it on the schedule to judge the test.') : undefined}
+        testID="field-circuit"
+      />
+      <TextField
+        label="Test current (A)"
+        value={draft.testCurrentA}
+        onChangeText={set('testCurrentA')}
+        keyboardType="decimal-pad"
+        mono
+        error={errors.testCurrentA}
+        hint={pct !== null ? `${pct} % of the ${ratingA} A rating` : ratingA ? `300 % of the ${ratingA} A rating is ${ratingA * 3} A` : undefined}
+        testID="field-test-current"
+      />
+      <ChoiceField
+        label="Did it trip?"
+        choices={[
+          { value: true, label: 'Tripped' },
+          { value: false, label: 'Did not trip' },
+        ]}
+        value={draft.tripped}
+        onChange={set('tripped')}
+        error={errors.tripped}
+      />
+      {draft.tripped === true && (
+        <TextField
+          label="Time to trip (s)"
+          value={draft.tripTimeS}
+          onChangeText={set('tripTimeS')}
+          keyboardType="decimal-pad"
+          mono
+          error={errors.tripTimeS}
+          testID="field-trip-time"
+        />
+      )}
+      <ChoiceField
+        label="Time-current band"
+        choices={bandChoices}
+        value={draft.bandId}
+        onChange={set('bandId')}
+        error={errors.bandId}
+        hint={
+          chosenBand && ratingA && chosenBand.ratingA !== ratingA
+            ? `This band is for a ${chosenBand.ratingA} A breaker; the circuit is ${ratingA} A.`
+            : 'Bands come from the maker’s published curve (Me → Band library). Without one, only a 300 % test can be judged, against the NETA table.'
+        }
+      />
+    </>
+  );
+}
+
+const styles = StyleSheet.create({
+  row: { flexDirection: 'row', gap: space.md, flexWrap: 'wrap' },
+  cell: { flex: 1, minWidth: 140 },
+  fallback: {
+    gap: space.xs,
+    padding: space.md,
+    borderRadius: radii.md,
+    borderWidth: 1,
+    borderColor: colours.warn,
+    backgroundColor: colours.warnSoft,
+  },
+});
