@@ -3,9 +3,8 @@
  * them to text a user can act on. Screens never call fetch: hooks call this.
  */
 import type { ApiErrorBody } from '@/shared/schemas';
+import { apiUrl } from './api-base';
 import { markUnreachable } from './online';
-
-const BASE_URL = process.env.EXPO_PUBLIC_API_URL ?? '';
 
 export class ApiError extends Error {
   constructor(
@@ -29,7 +28,7 @@ export class NetworkError extends Error {
 async function request<T>(method: string, path: string, body?: unknown): Promise<T> {
   let response: Response;
   try {
-    response = await fetch(`${BASE_URL}/api${path}`, {
+    response = await fetch(apiUrl(path), {
       method,
       credentials: 'include',
       headers: body === undefined ? undefined : { 'content-type': 'application/json' },

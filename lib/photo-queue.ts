@@ -18,9 +18,8 @@
  * The decisions are pure functions (unit-tested); `PhotoUploader` runs them against its
  * dependencies, which hooks/use-photos.ts wires to the query client and the platform's store.
  */
+import { apiUrl } from './api-base';
 import { markUnreachable } from './online';
-
-const BASE_URL = process.env.EXPO_PUBLIC_API_URL ?? '';
 
 /** Resize on the device before queueing: the long edge, and the JPEG quality. */
 export const PHOTO_LONG_EDGE = 2000;
@@ -44,7 +43,7 @@ export const SYNCED_SETTLE_MS = 5_000;
 export const STALL_MS = 60_000;
 
 export const photoUrl = (photoId: string, variant: 'original' | 'thumb') =>
-  `${BASE_URL}/api/photos/${encodeURIComponent(photoId)}${variant === 'thumb' ? '/thumb' : ''}`;
+  apiUrl(`/photos/${encodeURIComponent(photoId)}${variant === 'thumb' ? '/thumb' : ''}`);
 
 // ---------- what is kept on the device ----------
 

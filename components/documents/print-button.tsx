@@ -9,6 +9,7 @@ import { Linking, Pressable, StyleSheet, View } from 'react-native';
 import { useSendReport } from '@/hooks/use-access';
 import { useOnline } from '@/hooks/use-outbox';
 import { describeError } from '@/lib/api';
+import { absoluteApiUrl } from '@/lib/api-base';
 import { Button } from '@/components/ui/button';
 import { Text } from '@/components/ui/text';
 import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
@@ -20,12 +21,6 @@ const PAPERS: { value: Paper; label: string }[] = [
 ];
 const OFFLINE_NOTE = 'Printing needs a connection: the PDF is made on the server. Try again once you are back online.';
 
-/** The absolute address of an API path (the app and the API share an origin on the web). */
-function apiUrl(path: string): string {
-  const base = process.env.EXPO_PUBLIC_API_URL ?? (typeof window !== 'undefined' ? window.location.origin : '');
-  return `${base}/api${path}`;
-}
-
 /** Open a PDF the server makes, or say why not. */
 function useOpenPdf() {
   const online = useOnline();
@@ -36,7 +31,7 @@ function useOpenPdf() {
       return;
     }
     setNote(null);
-    Linking.openURL(apiUrl(path)).catch(() => setNote('The PDF could not be opened here: allow pop-ups for this site and try again.'));
+    Linking.openURL(absoluteApiUrl(path)).catch(() => setNote('The PDF could not be opened here: allow pop-ups for this site and try again.'));
   };
   return { online, note: note ?? (online ? null : 'Offline: printing waits for a connection.'), open };
 }
