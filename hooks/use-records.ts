@@ -29,6 +29,7 @@ import type {
 } from '@/shared/records';
 import type { Membership, MeResponse } from '@/shared/schemas';
 import type { Mutation, RecordList } from '@/shared/sync';
+import { viewOf, type BuildingView } from './building-view';
 import { keys } from './keys';
 import { useEnqueue } from './use-outbox';
 
@@ -85,10 +86,10 @@ export interface AssessedReading {
 }
 
 /** Judge a reading against what the device holds (its circuit, panel and band). */
-export function assessOnDevice(copy: BuildingCopy, reading: Reading, bands: readonly Band[] | undefined): Assessment {
-  const circuit = reading.circuitId ? copy.circuits[reading.circuitId] : null;
+export function assessOnDevice(view: BuildingView, reading: Reading, bands: readonly Band[] | undefined): Assessment {
+  const circuit = reading.circuitId ? view.circuit(reading.circuitId) : null;
   const bandId = reading.bandId ?? circuit?.bandId ?? null;
-  const context = { circuit, panel: copy.panels[reading.panelId] };
+  const context = { circuit, panel: view.panel(reading.panelId) };
   try {
     return assessReading(reading, { ...context, band: bandId ? bands?.find((b) => b.id === bandId) : null });
   } catch {
@@ -122,10 +123,10 @@ export function useInspection(inspectionId: string) {
         const readings = list(copy, 'readings')
           .filter((x) => x.inspectionId === inspectionId)
           .sort((a, b) => a.id.localeCompare(b.id))
-          .map((reading) => ({ reading, assessment: assessOnDevice(copy, reading, bands) }));
+          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands) }));
         const deficiencies = list(copy, 'deficiencies').filter((d) => d.inspectionId === inspectionId);
         const panels = inspection.panelIds.map((id) => copy.panels[id]).filter(Boolean);
-        return { inspection, readings, deficiencies, panels, copy };
+        return { inspection, readings, deficiencies, panels, view: viewOf(copy) };
       },
       [inspectionId, bands],
     ),
@@ -136,7 +137,7 @@ export function useInspection(inspectionId: string) {
 
 export interface DeficiencyRow {
   deficiency: Deficiency;
-  copy: BuildingCopy;
+  view: BuildingView;
   /** photos of the deficiency on the device */
   photoCount: number;
 }
@@ -150,7 +151,7 @@ export function useAllDeficiencies() {
           const photos = list(copy, 'photos');
           return list(copy, 'deficiencies').map((deficiency) => ({
             deficiency,
-            copy,
+            view: viewOf(copy),
             photoCount: photos.filter((p) => p.parentId === deficiency.id).length,
           }));
         }),
@@ -183,7 +184,7 @@ export function useDeficiency(deficiencyId: string) {
           entries,
           photos,
           reading,
-          copy,
+          view: viewOf(copy),
           panel: deficiency.panelId ? (copy.panels[deficiency.panelId] ?? null) : null,
           circuit: deficiency.circuitId ? (copy.circuits[deficiency.circuitId] ?? null) : null,
         };
@@ -213,7 +214,7 @@ export function useCircuitRecord(circuitId: string) {
         const readings = list(copy, 'readings')
           .filter((x) => x.circuitId === circuitId)
           .sort((a, b) => b.id.localeCompare(a.id))
-          .map((reading) => ({ reading, assessment: assessOnDevice(copy, reading, bands) }));
+          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands) }));
         // the judged rise: a test-pulse reading at its raw difference, a too-light one not at all
         const terminations: TerminationReading[] = readings.flatMap(({ reading, assessment }) => {
           const t = terminationReadingOf(reading, assessment);
@@ -227,7 +228,7 @@ export function useCircuitRecord(circuitId: string) {
             })
           : null;
         const deficiencies = list(copy, 'deficiencies').filter((d) => d.circuitId === circuitId);
-        return { circuit, trips, readings, findings, deficiencies, copy };
+        return { circuit, trips, readings, findings, deficiencies, view: viewOf(copy) };
       },
       [circuitId, bands],
     ),

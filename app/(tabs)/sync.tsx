@@ -5,9 +5,9 @@ import { Screen } from '@/components/ui/screen';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
 import { stampTime, timeAgo } from '@/components/ui/time-ago';
+import type { BuildingView } from '@/hooks/building-view';
 import { canRestore, useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
 import { useSyncReview } from '@/hooks/use-register';
-import { recordsOf, type BuildingCopy } from '@/lib/replica';
 import type { Conflict } from '@/shared/sync';
 
 const show = (value: unknown) =>
@@ -55,8 +55,8 @@ export default function Sync() {
 
       <Section title={`Needs review (${needsReview})`} testID="needs-review">
         {needsReview === 0 && <Text tone="soft">No conflicts or refused changes.</Text>}
-        {data.conflicts.map(({ conflict, copy }) => (
-          <ConflictCard key={conflict.id} conflict={conflict} where={whereOf(conflict, copy)} />
+        {data.conflicts.map(({ conflict, view }) => (
+          <ConflictCard key={conflict.id} conflict={conflict} where={whereOf(conflict, view)} />
         ))}
         {data.refused.map((r) => <RefusedCard key={r.mutation.id} label={r.label} reason={r.reason} at={r.at} id={r.mutation.id} />)}
       </Section>
@@ -77,14 +77,14 @@ export default function Sync() {
   );
 }
 
-function whereOf(conflict: Conflict, copy: BuildingCopy) {
+function whereOf(conflict: Conflict, view: BuildingView) {
   if (conflict.entity === 'circuit') {
-    const circuit = copy.circuits[conflict.entityId];
-    return circuit ? `${copy.panels[circuit.panelId]?.tag ?? 'Panel'} · position ${circuit.position}` : 'A deleted circuit';
+    const circuit = view.circuit(conflict.entityId);
+    return circuit ? `${view.panel(circuit.panelId)?.tag ?? 'Panel'} · position ${circuit.position}` : 'A deleted circuit';
   }
-  if (conflict.entity === 'panel') return `Panel ${copy.panels[conflict.entityId]?.tag ?? ''}`;
+  if (conflict.entity === 'panel') return `Panel ${view.panel(conflict.entityId)?.tag ?? ''}`;
   if (conflict.entity === 'building') return 'Building';
-  const deficiency = recordsOf(copy, 'deficiencies')[conflict.entityId];
+  const deficiency = view.deficiency(conflict.entityId);
   if (deficiency) return `Deficiency · ${deficiency.title}`;
   return RECORD_WORDS[conflict.entity] ?? 'Record';
 }

@@ -7,7 +7,6 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import { assessOnDevice, useBands, useDeficiency, useMembership, useRecordWrites } from '@/hooks/use-records';
 import { confirmAction } from '@/lib/confirm';
-import { recordsOf } from '@/lib/replica';
 import { may, todayISO } from '@/shared/deficiency';
 import { INSPECTION_KIND_LABELS, VISUAL_CHECKS, type Deficiency, type Reading } from '@/shared/records';
 import { directoryText } from '@/components/register/circuit-format';
@@ -39,22 +38,22 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
   const query = useDeficiency(deficiencyId);
   const bands = useBands().data;
   const writes = useRecordWrites();
-  const membership = useMembership(query.data?.copy.building.organisationId);
+  const membership = useMembership(query.data?.view.building.organisationId);
   const gate = replicaGate(query, 'deficiency');
   if (gate || !query.data) return gate;
-  const { deficiency: d, entries, photos, reading, copy, circuit } = query.data;
-  const role = copy.building.role;
+  const { deficiency: d, entries, photos, reading, view, circuit } = query.data;
+  const role = view.building.role;
   const people = membership?.people ?? [];
   const me = membership?.userId ?? null;
-  const buildingId = copy.building.id;
+  const buildingId = view.building.id;
   const today = todayISO();
   const due = dueLine(d, today);
-  const where = whereParts(copy, d);
+  const where = whereParts(view, d);
   const raisedEntry = entries.find((e) => e.kind === 'change' && e.text === 'raised');
   const raisedAt = raisedEntry?.at ?? madeAt(d.id);
   const repairPhotos = photos.filter((p) => p.purpose === 'repair').length;
-  const assessment = reading ? assessOnDevice(copy, reading, bands) : null;
-  const inspection = d.inspectionId ? recordsOf(copy, 'inspections')[d.inspectionId] : undefined;
+  const assessment = reading ? assessOnDevice(view, reading, bands) : null;
+  const inspection = d.inspectionId ? view.inspection(d.inspectionId) : undefined;
   const fieldWorker = role !== 'owner';
 
   const remove = async () => {
@@ -189,7 +188,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
         <DeficiencyHistory
           deficiencyId={d.id}
           entries={entries}
-          copy={copy}
+          view={view}
           people={people}
           me={me}
           onComment={(text) => writes.comment(buildingId, d.id, text)}

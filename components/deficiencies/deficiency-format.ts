@@ -4,7 +4,7 @@
  * and the circuit's record.
  */
 import { directoryText } from '@/components/register/circuit-format';
-import type { BuildingCopy } from '@/lib/replica';
+import type { BuildingView } from '@/hooks/building-view';
 import { PRIORITY_LABELS, STATUS_LABELS, type Deficiency, type DeficiencyStatus, type Priority } from '@/shared/records';
 import { isOutstanding } from '@/shared/deficiency';
 
@@ -54,22 +54,22 @@ export function dateTimeWords(iso: string): string {
 }
 
 /** Where a deficiency is: building · panel tag · circuit position and description. */
-export function whereParts(copy: BuildingCopy, d: Pick<Deficiency, 'panelId' | 'circuitId'>): {
+export function whereParts(view: BuildingView, d: Pick<Deficiency, 'panelId' | 'circuitId'>): {
   building: string;
   panel: string | null;
   circuit: string | null;
 } {
-  const panel = d.panelId ? copy.panels[d.panelId] : undefined;
-  const circuit = d.circuitId ? copy.circuits[d.circuitId] : undefined;
+  const panel = d.panelId ? view.panel(d.panelId) : undefined;
+  const circuit = d.circuitId ? view.circuit(d.circuitId) : undefined;
   return {
-    building: copy.building.name,
+    building: view.building.name,
     panel: panel ? `Panel ${panel.tag}` : d.panelId ? 'a deleted panel' : null,
     circuit: circuit ? `circuit ${circuit.position}, ${directoryText(circuit)}` : d.circuitId ? 'a deleted circuit' : null,
   };
 }
 
-export function whereText(copy: BuildingCopy, d: Pick<Deficiency, 'panelId' | 'circuitId'>): string {
-  const w = whereParts(copy, d);
+export function whereText(view: BuildingView, d: Pick<Deficiency, 'panelId' | 'circuitId'>): string {
+  const w = whereParts(view, d);
   return [w.building, w.panel, w.circuit].filter(Boolean).join(' · ');
 }
 
@@ -109,7 +109,7 @@ const clip = (s: string, n = 120) => (s.length > n ? `${s.slice(0, n - 1)}…` :
 export function valueWords(
   field: string,
   value: unknown,
-  ctx: { copy: BuildingCopy; people: readonly { id: string; name: string }[]; me: string | null },
+  ctx: { view: BuildingView; people: readonly { id: string; name: string }[]; me: string | null },
 ): string {
   if (value === null || value === undefined || value === '') return 'none';
   switch (field) {
@@ -120,11 +120,11 @@ export function valueWords(
     case 'assigneeId':
       return personName(ctx.people, value as string, ctx.me);
     case 'circuitId': {
-      const c = ctx.copy.circuits[value as string];
+      const c = ctx.view.circuit(value as string);
       return c ? `circuit ${c.position}, ${directoryText(c)}` : 'a deleted circuit';
     }
     case 'panelId': {
-      const p = ctx.copy.panels[value as string];
+      const p = ctx.view.panel(value as string);
       return p ? `panel ${p.tag}` : 'a deleted panel';
     }
     case 'dueOn':

@@ -4,7 +4,7 @@
  */
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import type { BuildingCopy } from '@/lib/replica';
+import type { BuildingView } from '@/hooks/building-view';
 import { commentCreateBody, PRIORITY_LABELS, type DeficiencyEntry, type Priority } from '@/shared/records';
 import { fieldErrors } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
@@ -16,16 +16,16 @@ import { colours, space } from '@/components/ui/theme';
 export interface DeficiencyHistoryProps {
   deficiencyId: string;
   entries: readonly DeficiencyEntry[];
-  copy: BuildingCopy;
+  view: BuildingView;
   people: readonly { id: string; name: string }[];
   me: string | null;
   onComment: (text: string) => void;
 }
 
-export function DeficiencyHistory({ deficiencyId, entries, copy, people, me, onComment }: DeficiencyHistoryProps) {
+export function DeficiencyHistory({ deficiencyId, entries, view, people, me, onComment }: DeficiencyHistoryProps) {
   const [text, setText] = useState('');
   const [error, setError] = useState<string | undefined>();
-  const ctx = { copy, people, me };
+  const ctx = { view, people, me };
   const send = () => {
     const parsed = commentCreateBody.safeParse({ deficiencyId, text });
     if (!parsed.success) {

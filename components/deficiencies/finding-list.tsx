@@ -158,7 +158,7 @@ export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRo
         {d.title}
       </Text>
       <Text variant="small" tone="soft" numberOfLines={2}>
-        {whereText(row.copy, d)}
+        {whereText(row.view, d)}
       </Text>
       <Text variant="small" tone={due.overdue ? 'danger' : 'ink'} testID="finding-due">
         {due.overdue ? '⚠ ' : ''}

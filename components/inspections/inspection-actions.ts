@@ -5,7 +5,7 @@
  */
 import { useMembership, useRecordWrites } from '@/hooks/use-records';
 import { confirmAction } from '@/lib/confirm';
-import type { BuildingCopy } from '@/lib/replica';
+import type { BuildingView } from '@/hooks/building-view';
 import type { Assessment } from '@/shared/assess';
 import { dueOnFor, todayISO } from '@/shared/deficiency';
 import { VISUAL_CHECKS, type Inspection, type Priority, type Reading, type VisualCheck } from '@/shared/records';
@@ -50,22 +50,22 @@ export function blankReading(inspectionId: string, panelId: string, kind: Readin
   } satisfies Omit<Reading, 'id' | 'buildingId' | 'version' | 'updatedAt' | 'updatedBy' | 'deletedAt'>;
 }
 
-export function useInspectionActions(copy: BuildingCopy | undefined, inspection: Inspection | undefined) {
+export function useInspectionActions(view: BuildingView | undefined, inspection: Inspection | undefined) {
   const writes = useRecordWrites();
-  const membership = useMembership(copy?.building.organisationId);
-  const role = copy?.building.role;
+  const membership = useMembership(view?.building.organisationId);
+  const role = view?.building.role;
   const signed = !!inspection?.signedAt;
   const canRecord = canRecordInspections(role) && !signed;
   const canRaise = canRaiseDeficiencies(role);
-  const buildingId = copy?.building.id ?? '';
+  const buildingId = view?.building.id ?? '';
 
   const dueOn = (priority: Priority) => dueOnFor(priority, todayISO(), membership?.settings.dueDays);
 
   /** Raise a deficiency from a saved reading, prefilled from what the reading found. */
   const raiseFromReading = (reading: Reading, assessment: Assessment): string | null => {
-    if (!copy || !inspection || !canRaise || assessment.priority === null) return null;
-    const circuit = reading.circuitId ? (copy.circuits[reading.circuitId] ?? null) : null;
-    const panel = copy.panels[reading.panelId];
+    if (!view || !inspection || !canRaise || assessment.priority === null) return null;
+    const circuit = reading.circuitId ? (view.circuit(reading.circuitId) ?? null) : null;
+    const panel = view.panel(reading.panelId);
     const tripVerdict = assessment.kind === 'trip' ? (assessment.result?.verdict ?? null) : null;
     return writes.raiseDeficiency(buildingId, {
       panelId: reading.panelId,

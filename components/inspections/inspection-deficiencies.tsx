@@ -1,7 +1,7 @@
 /** The deficiencies raised in one inspection, each a link to its own screen. */
 import { Pressable, StyleSheet, View } from 'react-native';
+import type { BuildingView } from '@/hooks/building-view';
 import { STATUS_LABELS, type Deficiency } from '@/shared/records';
-import type { Panel } from '@/shared/schemas';
 import { dateText } from './inspection-format';
 import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { Text } from '@/components/ui/text';
@@ -9,12 +9,12 @@ import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
 
 export function InspectionDeficiencies({
   deficiencies,
-  panels,
+  view,
   onOpen,
   canRaise,
 }: {
   deficiencies: Deficiency[];
-  panels: Record<string, Panel>;
+  view: BuildingView;
   onOpen: (deficiency: Deficiency) => void;
   canRaise: boolean;
 }) {
@@ -30,7 +30,7 @@ export function InspectionDeficiencies({
         </Text>
       )}
       {sorted.map((d) => {
-        const tag = d.panelId ? panels[d.panelId]?.tag : null;
+        const tag = d.panelId ? view.panel(d.panelId)?.tag : null;
         return (
           <Pressable
             key={d.id}

@@ -5,9 +5,10 @@
  */
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
+import type { BuildingView } from '@/hooks/building-view';
 import type { AssessedReading } from '@/hooks/use-records';
 import { READING_KINDS, type InspectionKind, type Reading, type VisualCheck } from '@/shared/records';
-import type { Circuit, Panel } from '@/shared/schemas';
+import type { Panel } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { InspectionChecklist } from './inspection-checklist';
 import { READING_KINDS_FOR, READING_KIND_LABELS } from './inspection-format';
@@ -20,7 +21,7 @@ const MEASURED: readonly MeasuredKind[] = READING_KINDS.filter((k): k is Measure
 
 export function InspectionPanel({
   panel,
-  circuits,
+  view,
   readings,
   raisedFor,
   kind,
@@ -32,7 +33,8 @@ export function InspectionPanel({
   onUntick,
 }: {
   panel: Panel;
-  circuits: Record<string, Circuit>;
+  /** the building's lookups (the readings' circuits) */
+  view: BuildingView;
   /** this panel's readings in this inspection */
   readings: AssessedReading[];
   /** reading ids a deficiency was raised from */
@@ -68,7 +70,7 @@ export function InspectionPanel({
             key={reading.id}
             reading={reading}
             assessment={assessment}
-            circuit={reading.circuitId ? (circuits[reading.circuitId] ?? null) : null}
+            circuit={reading.circuitId ? (view.circuit(reading.circuitId) ?? null) : null}
             hasDeficiency={raisedFor.has(reading.id)}
             onOpen={canRecord ? () => onOpenReading(reading) : undefined}
           />

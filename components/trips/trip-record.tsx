@@ -7,7 +7,7 @@
 import { useRouter } from 'expo-router';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
 import { useCircuitRecord, type AssessedReading } from '@/hooks/use-records';
-import { recordsOf, type BuildingCopy } from '@/lib/replica';
+import type { BuildingView } from '@/hooks/building-view';
 import type { NuisanceTripFindings } from '@/shared/calc';
 import { isOutstanding, may, todayISO } from '@/shared/deficiency';
 import { THERMAL_COMPONENT_LABELS, type TripEvent } from '@/shared/records';
@@ -27,8 +27,8 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
   const { width } = useWindowDimensions();
   const record = useCircuitRecord(circuitId).data;
   if (!record) return null;
-  const { circuit, trips, readings, findings, deficiencies, copy } = record;
-  const role = copy.building.role;
+  const { circuit, trips, readings, findings, deficiencies, view } = record;
+  const role = view.building.role;
   const wide = width >= WIDE_MIN_WIDTH;
   const thermal = readings.filter((r) => r.reading.kind === 'thermal');
   const torque = readings.filter((r) => r.reading.kind === 'torque');
@@ -81,7 +81,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
             {thermal.length === 0 ? (
               <Text tone="soft">No thermal reading of this circuit yet. A scan of its lug under load is recorded in an inspection.</Text>
             ) : (
-              thermal.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} copy={copy} />)
+              thermal.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} view={view} />)
             )}
           </Section>
         </View>
@@ -90,7 +90,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
             {torque.length === 0 ? (
               <Text tone="soft">No torque check of this circuit&apos;s terminal yet.</Text>
             ) : (
-              torque.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} copy={copy} />)
+              torque.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} view={view} />)
             )}
           </Section>
         </View>
@@ -99,7 +99,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
       {other.length > 0 && (
         <Section title="Other readings" testID="record-other">
           {other.slice(0, RECENT).map((r) => (
-            <ReadingRow key={r.reading.id} assessed={r} copy={copy} />
+            <ReadingRow key={r.reading.id} assessed={r} view={view} />
           ))}
         </Section>
       )}
@@ -129,7 +129,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
           <Button
             label="Raise a deficiency on this circuit"
             tone="secondary"
-            onPress={() => router.push({ pathname: '/deficiencies/new', params: { buildingId: copy.building.id, panelId, circuitId } })}
+            onPress={() => router.push({ pathname: '/deficiencies/new', params: { buildingId: view.building.id, panelId, circuitId } })}
             testID="raise-circuit-deficiency"
           />
         )}
@@ -237,9 +237,9 @@ function TripRow({ trip, ratingA }: { trip: TripEvent; ratingA: number | null })
   );
 }
 
-function ReadingRow({ assessed, copy }: { assessed: AssessedReading; copy: BuildingCopy }) {
+function ReadingRow({ assessed, view }: { assessed: AssessedReading; view: BuildingView }) {
   const { reading, assessment } = assessed;
-  const inspection = recordsOf(copy, 'inspections')[reading.inspectionId];
+  const inspection = view.inspection(reading.inspectionId);
   const what =
     reading.kind === 'thermal'
       ? [reading.component ? THERMAL_COMPONENT_LABELS[reading.component] : 'Thermal', reading.phase ? `phase ${reading.phase}` : null].filter(Boolean).join(', ')

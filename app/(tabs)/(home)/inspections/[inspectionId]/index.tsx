@@ -21,16 +21,16 @@ export default function InspectionScreen() {
   const wide = useWindowDimensions().width >= WIDE_MIN_WIDTH;
   const query = useInspection(inspectionId);
   const [editing, setEditing] = useState(false);
-  const actions = useInspectionActions(query.data?.copy, query.data?.inspection);
+  const actions = useInspectionActions(query.data?.view, query.data?.inspection);
   const gate = replicaGate(query, 'inspection');
   if (gate || !query.data) return gate;
-  const { inspection, readings, deficiencies, panels, copy } = query.data;
+  const { inspection, readings, deficiencies, panels, view } = query.data;
   const raisedFor = new Set(deficiencies.map((d) => d.readingId).filter((id): id is string => !!id));
   const panelsWithReadings = [...new Set(readings.map((r) => r.reading.panelId))];
 
   const header = editing ? (
     <InspectionForm
-      panels={Object.values(copy.panels).sort((a, b) => a.tag.localeCompare(b.tag, undefined, { numeric: true }))}
+      panels={view.panels()}
       initial={inspection}
       isNew={false}
       lockedPanelIds={panelsWithReadings}
@@ -43,7 +43,7 @@ export default function InspectionScreen() {
   ) : (
     <InspectionHeader
       inspection={inspection}
-      buildingName={copy.building.name}
+      buildingName={view.building.name}
       panels={panels}
       myId={actions.myId}
       onEdit={actions.canRecord ? () => setEditing(true) : undefined}
@@ -54,7 +54,7 @@ export default function InspectionScreen() {
     <InspectionPanel
       key={panel.id}
       panel={panel}
-      circuits={copy.circuits}
+      view={view}
       readings={readings.filter((r) => r.reading.panelId === panel.id)}
       raisedFor={raisedFor}
       kind={inspection.kind}
@@ -75,7 +75,7 @@ export default function InspectionScreen() {
     <>
       <InspectionDeficiencies
         deficiencies={deficiencies}
-        panels={copy.panels}
+        view={view}
         canRaise={actions.canRaise}
         onOpen={(d) => router.push({ pathname: '/deficiencies/[deficiencyId]', params: { deficiencyId: d.id } })}
       />
