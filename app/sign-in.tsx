@@ -2,10 +2,11 @@ import { Link } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
 import { TextField } from '@/components/ui/fields';
 import { Screen } from '@/components/ui/screen';
 import { Text } from '@/components/ui/text';
-import { colours, radii, space } from '@/components/ui/theme';
+import { space } from '@/components/ui/theme';
 import { useSignIn } from '@/hooks/use-session';
 import { ApiError, describeError } from '@/lib/api';
 import { fieldErrors, signInBody } from '@/shared/schemas';
@@ -34,7 +35,7 @@ export default function SignIn() {
         <Text variant="title">Ampwright</Text>
         <Text tone="soft">Panel schedules and condition records, on the job and offline.</Text>
       </View>
-      <View style={styles.card}>
+      <Card style={styles.card}>
         <TextField
           label="E-mail"
           value={email}
@@ -64,7 +65,7 @@ export default function SignIn() {
         <Link href="/forgot-password" style={styles.forgot} testID="forgot-password-link">
           <Text tone="copper">Forgot your password?</Text>
         </Link>
-      </View>
+      </Card>
       <Text variant="small" tone="faint">
         Demo: admin@, electrician@, inspector@ or owner@ampwright.test with the password ampwright-demo.
       </Text>
@@ -77,10 +78,5 @@ const styles = StyleSheet.create({
   forgot: { minHeight: 44, paddingVertical: space.md },
   card: {
     gap: space.lg,
-    padding: space.lg,
-    backgroundColor: colours.card,
-    borderRadius: radii.lg,
-    borderWidth: 1,
-    borderColor: colours.rule,
   },
 });

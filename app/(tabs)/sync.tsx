@@ -1,6 +1,7 @@
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
 import { PhotosWaiting } from '@/components/documents/photos';
+import { Card } from '@/components/ui/card';
 import { Screen } from '@/components/ui/screen';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
@@ -27,13 +28,13 @@ export default function Sync() {
 
   return (
     <Screen>
-      <View style={styles.card}>
+      <Card>
         <Text variant="heading" testID="sync-connection">
           {online ? 'Connected' : 'Offline — changes stay on this device'}
         </Text>
         <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data.lastSyncAt)}</Text>
         <Button label={pulling ? 'Syncing…' : 'Sync now'} busy={pulling} onPress={syncNow} testID="sync-now" />
-      </View>
+      </Card>
 
       <Section title={`On this device (${outbox.length})`} testID="outbox">
         {outbox.length === 0 ? (
@@ -132,15 +133,14 @@ function RefusedCard({ id, label, reason, at }: { id: string; label: string; rea
 
 function Section({ title, children, testID }: { title: string; children: React.ReactNode; testID: string }) {
   return (
-    <View style={styles.card} testID={testID}>
+    <Card testID={testID}>
       <Text variant="label" tone="soft">{title.toUpperCase()}</Text>
       {children}
-    </View>
+    </Card>
   );
 }
 
 const styles = StyleSheet.create({
-  card: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
   row: { flexDirection: 'row', alignItems: 'center', gap: space.sm, paddingVertical: space.xs, borderBottomWidth: StyleSheet.hairlineWidth, borderBottomColor: colours.rule },
   flex: { flex: 1 },
   review: { gap: space.xs, padding: space.md, borderRadius: radii.md, borderWidth: 1, borderColor: colours.danger, backgroundColor: colours.dangerSoft },

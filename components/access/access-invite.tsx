@@ -6,7 +6,7 @@ import { ApiError, describeError } from '@/lib/api';
 import { inviteBody, INVITATION_DAYS, ROLE_LABELS } from '@/shared/access';
 import { ROLES, type Role } from '@/shared/domain';
 import { fieldErrors } from '@/shared/schemas';
-import { BuildingChecklist, card, Notice } from './access-parts';
+import { BuildingChecklist, AccessCard, Notice } from './access-parts';
 import { Button } from '@/components/ui/button';
 import { ChoiceField, TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
@@ -36,7 +36,7 @@ export function AccessInvite({ organisationId, buildings }: { organisationId: st
   };
 
   return (
-    <View style={card} testID="access-invite">
+    <AccessCard testID="access-invite">
       <Text variant="heading">Invite someone</Text>
       <Text tone="soft">They get an e-mail with a link that works once, for {INVITATION_DAYS} days, to choose their name and password.</Text>
       <TextField
@@ -93,7 +93,7 @@ export function AccessInvite({ organisationId, buildings }: { organisationId: st
         <Notice tone="danger" text={describeError(invite.error)} testID="invite-error" />
       )}
       <Button label="Send invitation" onPress={submit} busy={invite.isPending} testID="invite-submit" />
-    </View>
+    </AccessCard>
   );
 }
 

@@ -4,7 +4,7 @@
  */
 import { Link, Redirect, useRouter } from 'expo-router';
 import { useState } from 'react';
-import { StyleSheet, View } from 'react-native';
+import { StyleSheet } from 'react-native';
 import { useAcceptInvitation, useForgotPassword, useInvitation, usePasswordReset, useResetPassword } from '@/hooks/use-access';
 import { useSession } from '@/hooks/use-session';
 import { ApiError, describeError } from '@/lib/api';
@@ -18,7 +18,7 @@ import {
   type InvitationView,
 } from '@/shared/access';
 import { fieldErrors } from '@/shared/schemas';
-import { card, Notice } from './access-parts';
+import { AccessCard, Notice } from './access-parts';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
 import { LoadingState } from '@/components/ui/states';
@@ -30,13 +30,13 @@ function LinkProblem({ error, what }: { error: unknown; what: 'invitation' | 're
   const title =
     code === 'used' ? 'This link has been used' : code === 'expired' ? 'This link has expired' : code === 'not_found' ? 'This link is not valid' : 'Could not open this link';
   return (
-    <View style={card} testID="link-problem" accessibilityRole="alert">
+    <AccessCard testID="link-problem" accessibilityRole="alert">
       <Text variant="heading">{title}</Text>
       <Text tone="soft">{describeError(error)}</Text>
       <Link href={what === 'reset' ? '/forgot-password' : '/sign-in'} style={styles.link}>
         <Text tone="copper">{what === 'reset' ? 'Ask for a new link' : 'Go to sign-in'}</Text>
       </Link>
-    </View>
+    </AccessCard>
   );
 }
 
@@ -65,7 +65,7 @@ export function AcceptInvitation({ token }: { token: string }) {
   if (me && me.email.toLowerCase() === inv.email.toLowerCase()) return <JoinAsSignedIn token={token} inv={inv} />;
   if (me) {
     return (
-      <View style={card} testID="invitation-other-account" accessibilityRole="alert">
+      <AccessCard testID="invitation-other-account" accessibilityRole="alert">
         <Text variant="heading">This invitation is for {inv.email}</Text>
         <Text tone="soft">
           You are signed in as {me.email}. Sign out first (under Me), then open the link again to join {inv.organisationName}.
@@ -73,7 +73,7 @@ export function AcceptInvitation({ token }: { token: string }) {
         <Link href="/" style={styles.link}>
           <Text tone="copper">Back to the app</Text>
         </Link>
-      </View>
+      </AccessCard>
     );
   }
   return inv.account === 'existing' ? <JoinWithPassword token={token} inv={inv} /> : <JoinAsNewAccount token={token} inv={inv} />;
@@ -85,7 +85,7 @@ function JoinAsSignedIn({ token, inv }: JoinProps) {
   const accept = useAcceptInvitation(token);
   const router = useRouter();
   return (
-    <View style={card} testID="accept-invitation">
+    <AccessCard testID="accept-invitation">
       <Text variant="heading">Join {inv.organisationName}</Text>
       <Text tone="soft">You were invited as {ROLE_LABELS[inv.role].toLowerCase()}. Your account and password stay as they are.</Text>
       {accept.error && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
@@ -95,7 +95,7 @@ function JoinAsSignedIn({ token, inv }: JoinProps) {
         busy={accept.isPending}
         testID="accept-submit"
       />
-    </View>
+    </AccessCard>
   );
 }
 
@@ -112,7 +112,7 @@ function JoinWithPassword({ token, inv }: JoinProps) {
     accept.mutate(parsed.data, { onSuccess: () => router.replace('/') });
   };
   return (
-    <View style={card} testID="accept-invitation">
+    <AccessCard testID="accept-invitation">
       <Text variant="heading">Join {inv.organisationName}</Text>
       <Text tone="soft">
         You already use Ampwright with {inv.email}. Enter that account&apos;s password to join as {ROLE_LABELS[inv.role].toLowerCase()}; nothing
@@ -133,7 +133,7 @@ function JoinWithPassword({ token, inv }: JoinProps) {
       <Link href="/forgot-password" style={styles.link}>
         <Text tone="copper">Forgot the password?</Text>
       </Link>
-    </View>
+    </AccessCard>
   );
 }
 
@@ -151,7 +151,7 @@ function JoinAsNewAccount({ token, inv }: JoinProps) {
     accept.mutate(parsed.data, { onSuccess: () => router.replace('/') });
   };
   return (
-    <View style={card} testID="accept-invitation">
+    <AccessCard testID="accept-invitation">
       <Text variant="heading">Join {inv.organisationName}</Text>
       <Text tone="soft">
         You were invited as {ROLE_LABELS[inv.role].toLowerCase()} with {inv.email}. Choose the name others will see and a password.
@@ -177,7 +177,7 @@ function JoinAsNewAccount({ token, inv }: JoinProps) {
       />
       {accept.error && !serverFields && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
       <Button label="Join and sign in" onPress={submit} busy={accept.isPending} testID="accept-submit" />
-    </View>
+    </AccessCard>
   );
 }
 
@@ -196,7 +196,7 @@ export function ResetPassword({ token }: { token: string }) {
     save.mutate(parsed.data.password);
   };
   return (
-    <View style={card} testID="reset-password">
+    <AccessCard testID="reset-password">
       <Text variant="heading">Choose a new password</Text>
       <Text tone="soft">For {reset.data.email}. Every device signed in with the old password is signed out.</Text>
       <TextField
@@ -212,7 +212,7 @@ export function ResetPassword({ token }: { token: string }) {
       />
       {save.error && !serverFields && <Notice tone="danger" text={describeError(save.error)} />}
       <Button label="Save and sign in" onPress={submit} busy={save.isPending} testID="reset-submit" />
-    </View>
+    </AccessCard>
   );
 }
 
@@ -227,7 +227,7 @@ export function ForgotPassword() {
     forgot.mutate(parsed.data.email);
   };
   return (
-    <View style={card} testID="forgot-password">
+    <AccessCard testID="forgot-password">
       <Text variant="heading">Forgot your password?</Text>
       <Text tone="soft">Enter the e-mail you sign in with. We send a link to choose a new password; it works once, for one hour.</Text>
       <TextField
@@ -247,7 +247,7 @@ export function ForgotPassword() {
       <Link href="/sign-in" style={styles.link}>
         <Text tone="copper">Back to sign-in</Text>
       </Link>
-    </View>
+    </AccessCard>
   );
 }
 

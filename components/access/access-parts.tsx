@@ -1,5 +1,6 @@
 /** Small pieces shared by the users-and-access screens. */
 import { Pressable, StyleSheet, View } from 'react-native';
+import { Card, type CardProps } from '@/components/ui/card';
 import { Text } from '@/components/ui/text';
 import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
 
@@ -49,16 +50,13 @@ export function Notice({ text, tone = 'ok', testID }: { text: string; tone?: 'ok
   );
 }
 
-export const card = {
-  gap: space.md,
-  padding: space.lg,
-  backgroundColor: colours.card,
-  borderRadius: radii.lg,
-  borderWidth: 1,
-  borderColor: colours.rule,
-} as const;
+/** The card every access screen sits in: a little more air between its parts than most. */
+export function AccessCard({ style, ...rest }: CardProps) {
+  return <Card style={[styles.accessCard, style]} {...rest} />;
+}
 
 const styles = StyleSheet.create({
+  accessCard: { gap: space.md },
   list: { flexDirection: 'row', flexWrap: 'wrap', gap: space.sm },
   chip: {
     minHeight: MIN_TOUCH,

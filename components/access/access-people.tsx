@@ -9,7 +9,7 @@ import { describeError } from '@/lib/api';
 import { confirmAction } from '@/lib/confirm';
 import { ROLE_LABELS, type PeopleResponse, type Person } from '@/shared/access';
 import { ROLES, type Role } from '@/shared/domain';
-import { BuildingChecklist, card, Notice } from './access-parts';
+import { AccessCard, BuildingChecklist, Notice } from './access-parts';
 import { Button } from '@/components/ui/button';
 import { ChoiceField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
@@ -94,7 +94,7 @@ function PersonCard({
   };
 
   return (
-    <View style={card} testID={`person-${slug}`}>
+    <AccessCard testID={`person-${slug}`}>
       <View>
         <Text variant="strong">{person.name}{isMe ? ' (you)' : ''}</Text>
         <Text tone="soft">{person.email}</Text>
@@ -126,7 +126,7 @@ function PersonCard({
       ) : onlyAdmin ? null : (
         <Button label={`Remove ${person.name}…`} tone="secondary" onPress={onRemove} busy={remove.isPending} testID={`remove-${slug}`} />
       )}
-    </View>
+    </AccessCard>
   );
 }
 
@@ -135,7 +135,7 @@ function PendingInvitations({ data }: { data: PeopleResponse }) {
   if (data.invitations.length === 0) return null;
   const names = new Map(data.buildings.map((b) => [b.id, b.name]));
   return (
-    <View style={card} testID="pending-invitations">
+    <AccessCard testID="pending-invitations">
       <Text variant="heading">Invitations not yet accepted</Text>
       {data.invitations.map((i) => (
         <View key={i.id} style={styles.invitation}>
@@ -157,7 +157,7 @@ function PendingInvitations({ data }: { data: PeopleResponse }) {
           />
         </View>
       ))}
-    </View>
+    </AccessCard>
   );
 }
 

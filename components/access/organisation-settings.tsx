@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import { keys } from '@/hooks/keys';
 import { ApiError, api, describeError } from '@/lib/api';
 import { PRIORITY_LABELS, PRIORITIES, organisationSettingsSchema, type OrganisationSettings } from '@/shared/records';
@@ -9,7 +10,7 @@ import { fieldErrors } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { TextField, ToggleField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
-import { colours, radii, space } from '@/components/ui/theme';
+import { space } from '@/components/ui/theme';
 
 /**
  * An admin's settings of the organisation: days to repair by priority (new deficiencies take
@@ -46,7 +47,7 @@ export function OrganisationSettingsCard({ membership }: { membership: Membershi
     save.mutate(parsed.data);
   };
   return (
-    <View style={styles.card} testID="organisation-settings">
+    <Card testID="organisation-settings">
       <Text variant="heading">{membership.organisationName}: settings</Text>
       <Text tone="soft">Days to repair a new deficiency, by priority. Changing them does not move existing due dates.</Text>
       <View style={styles.grid}>
@@ -77,12 +78,11 @@ export function OrganisationSettingsCard({ membership }: { membership: Membershi
       ) : null}
       {save.isSuccess && !save.isPending ? <Text testID="settings-saved">✓ Saved for everyone in the organisation.</Text> : null}
       <Button label="Save settings" tone="secondary" busy={save.isPending} onPress={onSave} testID="save-settings" />
-    </View>
+    </Card>
   );
 }
 
 const styles = StyleSheet.create({
-  card: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
   grid: { flexDirection: 'row', flexWrap: 'wrap', gap: space.md },
   cell: { flexBasis: 140, flexGrow: 1 },
 });

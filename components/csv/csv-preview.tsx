@@ -1,11 +1,12 @@
 /** The preview of an import: every row of the file, what it will do, and what is wrong with it. */
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import { CSV_HEADER_OF, type CsvField, type ImportPlan } from '@/shared/csv';
 import type { CircuitFields } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { Text } from '@/components/ui/text';
-import { colours, radii, space } from '@/components/ui/theme';
+import { colours, space } from '@/components/ui/theme';
 
 type Kind = 'problem' | 'new' | 'changed' | 'same';
 const KIND_WORDS: Record<Kind, string> = { problem: '⚠ Problem', new: '+ New', changed: '✎ Changed', same: '= Unchanged' };
@@ -39,7 +40,7 @@ export function CsvPreview({ plan }: { plan: ImportPlan }) {
       {visible.map(({ r, kind }) => {
         const patch = patches.get(r.row);
         return (
-          <View key={r.row} style={[styles.row, kind === 'problem' && styles.problem]} testID={`csv-row-${r.row}`}>
+          <Card size="compact" key={r.row} style={[styles.row, kind === 'problem' && styles.problem]} testID={`csv-row-${r.row}`}>
             <View style={styles.rowHead}>
               <Text variant="small" tone="faint" style={styles.rowNo}>row {r.row}</Text>
               <Text variant="readingBold" style={styles.pos}>{r.position !== null ? String(r.position).padStart(2, ' ') : '—'}</Text>
@@ -55,18 +56,18 @@ export function CsvPreview({ plan }: { plan: ImportPlan }) {
             {r.problems.map((p) => (
               <Text key={p} variant="small" tone="danger">{p}</Text>
             ))}
-          </View>
+          </Card>
         );
       })}
       {plan.deletes.map((c) => (
-        <View key={c.id} style={[styles.row, styles.remove]} testID={`csv-remove-${c.position}`}>
+        <Card size="compact" key={c.id} style={[styles.row, styles.remove]} testID={`csv-remove-${c.position}`}>
           <View style={styles.rowHead}>
             <Text variant="small" tone="faint" style={styles.rowNo}>not in file</Text>
             <Text variant="readingBold" style={styles.pos}>{String(c.position).padStart(2, ' ')}</Text>
             <Text variant="strong" tone="danger">− Removed</Text>
           </View>
           <Text variant="small">{circuitLine(c)}</Text>
-        </View>
+        </Card>
       ))}
       {same > 0 && (
         <Button
@@ -82,7 +83,7 @@ export function CsvPreview({ plan }: { plan: ImportPlan }) {
 
 const styles = StyleSheet.create({
   wrap: { gap: space.sm },
-  row: { backgroundColor: colours.card, borderWidth: 1, borderColor: colours.rule, borderRadius: radii.md, padding: space.sm, gap: 2 },
+  row: { gap: 2 },
   problem: { borderColor: colours.danger, backgroundColor: colours.dangerSoft },
   remove: { borderColor: colours.ruleStrong, borderStyle: 'dashed' },
   rowHead: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexWrap: 'wrap' },

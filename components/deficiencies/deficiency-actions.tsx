@@ -7,6 +7,7 @@
  */
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import type { Role } from '@/shared/domain';
 import { checkDeficiencyChange, dueOnFor, may, nextStatuses, todayISO, type DeficiencyAction } from '@/shared/deficiency';
 import {
@@ -22,7 +23,6 @@ import {
 import { fieldErrors } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { dateWords, isRealDate } from './deficiency-format';
-import { Card } from './deficiency-parts';
 import { ChoiceField, TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
@@ -165,7 +165,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
       )}
 
       {form === 'schedule' && (
-        <Card testID="form-schedule">
+        <Card size="row" testID="form-schedule">
           <Text variant="strong">Schedule the repair</Text>
           <ChoiceField label="Who does it (optional)" choices={assigneeChoices} value={assignee} onChange={setAssignee} error={errors.assigneeId} />
           <Button label="Schedule" onPress={() => submit({ status: 'scheduled', assigneeId: assignee })} testID="confirm-schedule" />
@@ -173,7 +173,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
       )}
 
       {form === 'repair' && (
-        <Card testID="form-repair">
+        <Card size="row" testID="form-repair">
           <Text variant="strong">Mark repaired</Text>
           <Text variant="small" tone="soft">
             A repair needs evidence: say what was done here, or add a photo of the repair below
@@ -196,7 +196,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
       )}
 
       {form === 'reopen' && (
-        <Card testID="form-reopen">
+        <Card size="row" testID="form-reopen">
           <Text variant="strong">Reopen</Text>
           <TextField
             label="Why (goes into the history)"
@@ -217,7 +217,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
       )}
 
       {form === 'defer' && (
-        <Card testID="form-defer">
+        <Card size="row" testID="form-defer">
           <Text variant="strong">Defer the repair</Text>
           <Text variant="small" tone="soft">
             A deferral keeps the finding on record with your reason and a date to look at it again.
@@ -261,7 +261,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
       )}
 
       {form === 'assign' && (
-        <Card testID="form-assign">
+        <Card size="row" testID="form-assign">
           <Text variant="strong">Who does it</Text>
           <ChoiceField label="Assigned to" choices={assigneeChoices} value={assignee} onChange={setAssignee} error={errors.assigneeId} />
           <Button label="Save" onPress={() => submit({ assigneeId: assignee })} testID="confirm-assign" />
@@ -269,7 +269,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
       )}
 
       {form === 'reprioritise' && (
-        <Card testID="form-priority">
+        <Card size="row" testID="form-priority">
           <Text variant="strong">Change the priority</Text>
           <ChoiceField
             label="Priority"

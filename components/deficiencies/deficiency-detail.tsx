@@ -5,6 +5,7 @@
  */
 import { useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import { assessOnDevice, useBands, useDeficiency, useMembership, useRecordWrites } from '@/hooks/use-records';
 import { confirmAction } from '@/lib/confirm';
 import { may, todayISO } from '@/shared/deficiency';
@@ -13,7 +14,7 @@ import { directoryText } from '@/components/register/circuit-format';
 import { DeficiencyActions } from './deficiency-actions';
 import { authorName, dateTimeWords, dateWords, dueLine, personName, whereParts } from './deficiency-format';
 import { DeficiencyHistory } from './deficiency-history';
-import { Card, RowLink, Section, StatusWord } from './deficiency-parts';
+import { RowLink, Section, StatusWord } from './deficiency-parts';
 import { DeficiencyPhotos } from './deficiency-photos';
 import { PriorityChip } from './priority-chip';
 import { replicaGate } from '@/components/ui/states';
@@ -88,7 +89,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
         ) : null}
       </View>
 
-      <Card>
+      <Card size="row">
         <Text variant="label" tone="soft">WHERE</Text>
         <Text testID="deficiency-where">{[where.building, where.panel].filter(Boolean).join(' · ')}</Text>
         {circuit && d.panelId ? (
@@ -122,7 +123,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
       </Card>
 
       {d.source === 'reading' && (
-        <Card testID="deficiency-source">
+        <Card size="row" testID="deficiency-source">
           <Text variant="label" tone="soft">WHAT THE READING SAID</Text>
           {reading && assessment ? (
             <>
@@ -140,7 +141,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
         </Card>
       )}
       {d.source === 'checklist' && d.check ? (
-        <Card testID="deficiency-source">
+        <Card size="row" testID="deficiency-source">
           <Text variant="label" tone="soft">FROM THE VISUAL CHECKLIST</Text>
           <Text>{VISUAL_CHECKS[d.check].label}</Text>
         </Card>

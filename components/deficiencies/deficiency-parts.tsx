@@ -1,5 +1,6 @@
 /** Small pieces the deficiency screens share: the status word, a card, a titled section. */
-import { Pressable, StyleSheet, View, type ViewProps } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import { STATUS_LABELS, type DeficiencyStatus } from '@/shared/records';
 import { Text } from '@/components/ui/text';
 import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
@@ -23,10 +24,6 @@ export function StatusWord({ status }: { status: DeficiencyStatus }) {
   );
 }
 
-export function Card({ style, ...rest }: ViewProps) {
-  return <View style={[styles.card, style]} {...rest} />;
-}
-
 export function Section({ title, children, testID, aside }: { title: string; children: React.ReactNode; testID?: string; aside?: React.ReactNode }) {
   return (
     <View style={styles.section} testID={testID}>
@@ -44,15 +41,15 @@ export function Section({ title, children, testID, aside }: { title: string; chi
 /** A row that opens something: at least 44 px tall, the whole row is the target. */
 export function RowLink({ onPress, label, children, testID }: { onPress: () => void; label: string; children: React.ReactNode; testID?: string }) {
   return (
-    <Pressable
+    <PressableCard
       accessibilityRole="link"
       accessibilityLabel={label}
       onPress={onPress}
       testID={testID}
-      style={({ pressed }) => [styles.rowLink, pressed && styles.pressed]}
+      style={styles.rowLink}
     >
       {children}
-    </Pressable>
+    </PressableCard>
   );
 }
 
@@ -67,24 +64,10 @@ const styles = StyleSheet.create({
     backgroundColor: colours.card,
   },
   statusDone: { backgroundColor: colours.paper },
-  card: {
-    backgroundColor: colours.card,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    padding: space.md,
-    gap: space.sm,
-  },
   section: { gap: space.sm },
   sectionHead: { flexDirection: 'row', alignItems: 'center', justifyContent: 'space-between', gap: space.sm, flexWrap: 'wrap' },
   rowLink: {
     minHeight: MIN_TOUCH,
-    backgroundColor: colours.card,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    padding: space.md,
     gap: space.xs,
   },
-  pressed: { opacity: 0.75 },
 });

@@ -4,6 +4,7 @@
  * count of each priority at the top (each a filter button, with its word).
  */
 import { Pressable, StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import { byUrgency, type DeficiencyRow } from '@/hooks/use-records';
 import { isOutstanding } from '@/shared/deficiency';
 import { DEFICIENCY_STATUSES, PRIORITIES, PRIORITY_LABELS, STATUS_LABELS, type DeficiencyStatus, type Priority } from '@/shared/records';
@@ -137,12 +138,12 @@ export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRo
   const d = row.deficiency;
   const due = dueLine(d, today);
   return (
-    <Pressable
+    <PressableCard
       accessibilityRole="link"
       accessibilityLabel={`${PRIORITY_LABELS[d.priority]}: ${d.title}. ${STATUS_LABELS[d.status]}, ${due.text}`}
       aria-current={selected ? true : undefined}
       onPress={onOpen}
-      style={({ pressed }) => [styles.row, { borderLeftColor: PRIORITY_COLOURS[d.priority] }, selected && styles.rowSelected, pressed && styles.pressed]}
+      style={[styles.row, { borderLeftColor: PRIORITY_COLOURS[d.priority] }, selected && styles.rowSelected]}
       testID={`finding-${d.id}`}
     >
       <View style={styles.rowTop}>
@@ -164,7 +165,7 @@ export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRo
         {due.overdue ? '⚠ ' : ''}
         {due.text}
       </Text>
-    </Pressable>
+    </PressableCard>
   );
 }
 
@@ -185,12 +186,7 @@ const styles = StyleSheet.create({
   filters: { gap: space.md },
   row: {
     minHeight: MIN_TOUCH,
-    backgroundColor: colours.card,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
     borderLeftWidth: 6,
-    padding: space.md,
     gap: space.xs,
   },
   rowSelected: { borderColor: colours.copper, borderWidth: 2, borderLeftWidth: 6, backgroundColor: colours.copperSoft },

@@ -6,6 +6,7 @@
  */
 import { useState } from 'react';
 import { Image, Modal, Pressable, StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import { useAddPhotos, usePhotos, useRemovePhoto, useWaitingPhotos, type ShownPhoto } from '@/hooks/use-photos';
 import { confirmAction } from '@/lib/confirm';
 import type { PhotoStatus } from '@/lib/photo-queue';
@@ -197,7 +198,7 @@ export function PhotosWaiting() {
   const { photos, refused } = useWaitingPhotos();
   const waiting = photos.length - refused;
   return (
-    <View style={styles.section} testID="photos-waiting">
+    <Card testID="photos-waiting">
       <Text variant="label" tone="soft">
         PHOTOS ({photos.length})
       </Text>
@@ -237,7 +238,7 @@ export function PhotosWaiting() {
           })}
         </>
       )}
-    </View>
+    </Card>
   );
 }
 
@@ -259,7 +260,6 @@ const styles = StyleSheet.create({
   full: { width: '100%', height: '100%' },
   viewerBar: { padding: space.lg, gap: space.xs, borderTopWidth: 1, borderTopColor: colours.inkSoft },
   viewerActions: { flexDirection: 'row', gap: space.sm, flexWrap: 'wrap', marginTop: space.sm },
-  section: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
   warn: { backgroundColor: colours.warnSoft, padding: space.md, borderRadius: radii.md, gap: space.xs },
   waitingRow: { flexDirection: 'row', gap: space.sm, paddingVertical: space.xs, borderBottomWidth: StyleSheet.hairlineWidth, borderBottomColor: colours.rule },
   flex: { flex: 1, gap: space.xs },

@@ -3,12 +3,13 @@
  * and admins, the deficiency it raised). Read-only once the inspection is signed.
  */
 import { useState } from 'react';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { Card, PressableCard } from '@/components/ui/card';
 import { PRIORITY_LABELS, VISUAL_CHECKS, VISUAL_CHECK_KEYS, type Reading, type VisualCheck } from '@/shared/records';
 import { Button } from '@/components/ui/button';
 import { PRIORITY_COLOURS } from '@/components/deficiencies/priority-chip';
 import { Text } from '@/components/ui/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+import { colours, MIN_TOUCH, space } from '@/components/ui/theme';
 
 export function InspectionChecklist({
   panelTag,
@@ -71,23 +72,24 @@ export function InspectionChecklist({
         );
         if (!editable) {
           return (
-            <View key={check} style={styles.item} testID={`check-${check}`}>
+            <Card size="compact" key={check} style={styles.item} testID={`check-${check}`}>
               {content}
-            </View>
+            </Card>
           );
         }
         return (
-          <Pressable
+          <PressableCard
+            size="compact"
             key={check}
             accessibilityRole="checkbox"
             aria-checked={ticked}
             accessibilityLabel={`${label} (${PRIORITY_LABELS[priority]})`}
             onPress={() => (reading ? onUntick(reading) : onTick(check))}
-            style={({ pressed }) => [styles.item, ticked && styles.itemTicked, pressed && styles.pressed]}
+            style={[styles.item, ticked && styles.itemTicked]}
             testID={`check-${check}`}
           >
             {content}
-          </Pressable>
+          </PressableCard>
         );
       })}
       {editable && (
@@ -112,13 +114,8 @@ const styles = StyleSheet.create({
     gap: space.sm,
     paddingVertical: space.xs,
     paddingHorizontal: space.sm,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    backgroundColor: colours.card,
   },
   itemTicked: { borderColor: colours.copper, backgroundColor: colours.copperSoft },
-  pressed: { opacity: 0.75 },
   text: { flex: 1, gap: 2 },
   meta: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
   dot: { width: 8, height: 8, borderRadius: 4 },

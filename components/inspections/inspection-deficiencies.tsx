@@ -1,11 +1,12 @@
 /** The deficiencies raised in one inspection, each a link to its own screen. */
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import type { BuildingView } from '@/hooks/building-view';
 import { STATUS_LABELS, type Deficiency } from '@/shared/records';
 import { dateText } from './inspection-format';
 import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { Text } from '@/components/ui/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+import { MIN_TOUCH, space } from '@/components/ui/theme';
 
 export function InspectionDeficiencies({
   deficiencies,
@@ -32,12 +33,12 @@ export function InspectionDeficiencies({
       {sorted.map((d) => {
         const tag = d.panelId ? view.panel(d.panelId)?.tag : null;
         return (
-          <Pressable
+          <PressableCard
             key={d.id}
             accessibilityRole="link"
             accessibilityLabel={`${d.title}, ${STATUS_LABELS[d.status]}, priority ${d.priority}`}
             onPress={() => onOpen(d)}
-            style={({ pressed }) => [styles.row, pressed && styles.pressed]}
+            style={styles.row}
             testID="inspection-deficiency"
           >
             <PriorityChip priority={d.priority} />
@@ -50,7 +51,7 @@ export function InspectionDeficiencies({
               </Text>
             </View>
             <Text tone="faint">›</Text>
-          </Pressable>
+          </PressableCard>
         );
       })}
     </View>
@@ -64,13 +65,7 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     alignItems: 'center',
     gap: space.sm,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
     flexWrap: 'wrap',
   },
-  pressed: { opacity: 0.7 },
   text: { flex: 1, minWidth: 160, gap: 2 },
 });

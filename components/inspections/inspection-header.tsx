@@ -1,5 +1,6 @@
 /** The head of an inspection: what, when, who, the conditions at the time, and its sign-off. */
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import { INSPECTION_KIND_LABELS, type Inspection } from '@/shared/records';
 import type { Panel } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
@@ -44,11 +45,11 @@ export function InspectionHeader({
         </View>
         {onEdit && <Button label="Edit details" tone="secondary" onPress={onEdit} testID="edit-inspection" />}
       </View>
-      <View style={styles.facts}>
+      <Card size="row" style={styles.facts}>
         <Fact label="PANELS" value={panels.map((p) => p.tag).join(' ') || '—'} />
         <Fact label="AMBIENT" value={inspection.ambientC === null ? 'not recorded' : `${inspection.ambientC} °C`} testID="inspection-ambient" />
         <Fact label="LOAD AT THE TIME" value={inspection.loadPct === null ? 'not recorded' : `${inspection.loadPct} % of normal`} testID="inspection-load" />
-      </View>
+      </Card>
       <InspectionLoadWarning kind={inspection.kind} loadPct={inspection.loadPct} />
       {inspection.notes ? <Text>{inspection.notes}</Text> : null}
       {signed ? (
@@ -71,11 +72,6 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     flexWrap: 'wrap',
     gap: space.lg,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
   },
   fact: { gap: 2, minWidth: 96 },
   signed: { backgroundColor: colours.ink, borderRadius: radii.md, padding: space.md, gap: 2 },

@@ -1,5 +1,6 @@
 /** A building's inspections, newest first: kind, date, the panels covered, signed or not. */
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import { INSPECTION_KIND_LABELS, type Inspection } from '@/shared/records';
 import type { Panel } from '@/shared/schemas';
 import { dateText } from './inspection-format';
@@ -23,12 +24,12 @@ export function InspectionList({
         const signed = !!inspection.signedAt;
         const kind = INSPECTION_KIND_LABELS[inspection.kind];
         return (
-          <Pressable
+          <PressableCard
             key={inspection.id}
             accessibilityRole="button"
             accessibilityLabel={`${kind}, ${dateText(inspection.performedOn)}, panels ${tags.join(', ')}, ${signed ? 'signed' : 'not signed'}`}
             onPress={() => onOpen(inspection)}
-            style={({ pressed }) => [styles.row, pressed && styles.pressed]}
+            style={styles.row}
             testID="inspection-row"
           >
             <View style={styles.text}>
@@ -44,7 +45,7 @@ export function InspectionList({
               <Text variant="label" tone={signed ? 'paper' : 'ink'}>{signed ? '✓ Signed' : '✎ Open'}</Text>
             </View>
             <Text tone="faint">›</Text>
-          </Pressable>
+          </PressableCard>
         );
       })}
     </View>
@@ -58,13 +59,7 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     alignItems: 'center',
     gap: space.md,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
   },
-  pressed: { opacity: 0.7 },
   text: { flex: 1, gap: 2 },
   badge: { borderRadius: radii.sm, paddingHorizontal: space.sm, paddingVertical: 2, borderWidth: 1 },
   signed: { backgroundColor: colours.ink, borderColor: colours.ink },

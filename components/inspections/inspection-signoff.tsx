@@ -1,10 +1,9 @@
 /** The sign-off of an inspection: inspectors and admins only, after a confirm; then it is frozen. */
-import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import type { Inspection } from '@/shared/records';
 import { Button } from '@/components/ui/button';
 import { signedLine } from './inspection-format';
 import { Text } from '@/components/ui/text';
-import { colours, radii, space } from '@/components/ui/theme';
 
 export function InspectionSignOff({
   inspection,
@@ -24,7 +23,7 @@ export function InspectionSignOff({
   const signed = signedLine(inspection, myId);
   const tally = `${readingCount} reading${readingCount === 1 ? '' : 's'}, ${deficiencyCount} deficienc${deficiencyCount === 1 ? 'y' : 'ies'} raised.`;
   return (
-    <View style={styles.box} testID="sign-off">
+    <Card size="row" strong testID="sign-off">
       <Text variant="label" tone="soft">SIGN-OFF</Text>
       <Text variant="small">{tally}</Text>
       {signed ? (
@@ -39,17 +38,6 @@ export function InspectionSignOff({
       ) : (
         <Text variant="small" tone="soft">An inspector or an admin signs this inspection off.</Text>
       )}
-    </View>
+    </Card>
   );
 }
-
-const styles = StyleSheet.create({
-  box: {
-    gap: space.sm,
-    padding: space.md,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.ruleStrong,
-    backgroundColor: colours.card,
-  },
-});

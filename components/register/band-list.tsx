@@ -1,5 +1,6 @@
 /** The organisation's time-current bands: label, rating, how many points, where they came from. */
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import type { Band } from '@/shared/records';
 import { Text } from '@/components/ui/text';
 import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
@@ -8,7 +9,7 @@ export function BandList({ bands }: { bands: Band[] }) {
   return (
     <View style={styles.list} testID="band-list">
       {bands.map((band) => (
-        <View key={band.id} style={styles.row} testID="band-row" accessibilityLabel={`${band.label}, ${band.ratingA} amperes, ${band.points.length} points`}>
+        <Card size="row" key={band.id} style={styles.row} testID="band-row" accessibilityLabel={`${band.label}, ${band.ratingA} amperes, ${band.points.length} points`}>
           <View style={styles.rating}>
             <Text variant="readingBold" tone="paper">{band.ratingA} A</Text>
           </View>
@@ -20,7 +21,7 @@ export function BandList({ bands }: { bands: Band[] }) {
             </Text>
             <Text variant="small" tone="faint">{band.source || 'Source not recorded'}</Text>
           </View>
-        </View>
+        </Card>
       ))}
     </View>
   );
@@ -33,11 +34,6 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     alignItems: 'center',
     gap: space.md,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
   },
   rating: { backgroundColor: colours.ink, borderRadius: radii.sm, paddingHorizontal: space.sm, paddingVertical: 2, minWidth: 64, alignItems: 'center' },
   text: { flex: 1, gap: 2 },

@@ -1,12 +1,13 @@
 import { useRouter } from 'expo-router';
 import { useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
+import { cardStyles } from '@/components/ui/card';
 import { useBuildingDirectory } from '@/hooks/use-register';
 import { searchDirectory } from '@/shared/directory-search';
 import { STATUS_LABELS } from './circuit-form';
 import { TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+import { MIN_TOUCH, space } from '@/components/ui/theme';
 
 const SHOWN = 12;
 
@@ -45,7 +46,7 @@ export function DirectorySearch({ buildingId }: { buildingId: string }) {
           onPress={() =>
             router.push({ pathname: '/panels/[panelId]/circuits/[circuitId]', params: { panelId: panel.id, circuitId: circuit.id } })
           }
-          style={styles.result}
+          style={[cardStyles.row, styles.result]}
           testID="directory-result"
         >
           <Text variant="reading" style={styles.place}>
@@ -78,10 +79,6 @@ const styles = StyleSheet.create({
     minHeight: MIN_TOUCH,
     paddingHorizontal: space.md,
     paddingVertical: space.sm,
-    backgroundColor: colours.card,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
   },
   place: { minWidth: 80 },
   what: { flex: 1, gap: 2 },

@@ -1,4 +1,5 @@
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import { SYSTEM_INFO } from '@/shared/domain';
 import type { Panel } from '@/shared/schemas';
 import { Text } from '@/components/ui/text';
@@ -29,12 +30,12 @@ export function FeederTree({ panels, onOpen }: { panels: Panel[]; onOpen: (panel
   const byId = new Map(panels.map((p) => [p.id, p]));
   const renderNode = (node: Node, depth: number): React.ReactNode => (
     <View key={node.panel.id}>
-      <Pressable
+      <PressableCard
         accessibilityRole="button"
         accessibilityLabel={`Panel ${node.panel.tag}`}
         testID={`panel-${node.panel.tag}`}
         onPress={() => onOpen(node.panel)}
-        style={({ pressed }) => [styles.node, { marginLeft: depth * space.xl }, pressed && styles.pressed]}
+        style={[styles.node, { marginLeft: depth * space.xl }]}
       >
         {depth > 0 && <Text style={styles.elbow} tone="faint">└</Text>}
         <View style={styles.tag}>
@@ -54,7 +55,7 @@ export function FeederTree({ panels, onOpen }: { panels: Panel[]; onOpen: (panel
           )}
         </View>
         <Text tone="faint">›</Text>
-      </Pressable>
+      </PressableCard>
       {node.children.map((child) => renderNode(child, depth + 1))}
     </View>
   );
@@ -68,14 +69,8 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     alignItems: 'center',
     gap: space.md,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
     marginBottom: space.sm,
   },
-  pressed: { opacity: 0.7 },
   elbow: { marginRight: -space.xs },
   tag: { backgroundColor: colours.ink, borderRadius: radii.sm, paddingHorizontal: space.sm, paddingVertical: 2 },
   details: { flex: 1, gap: 2 },

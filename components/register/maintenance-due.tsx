@@ -5,7 +5,8 @@
  * only what is overdue, never inspected or due within 30 days).
  */
 import { useRouter } from 'expo-router';
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import { useMaintenanceDue, type DueRow } from '@/hooks/use-maintenance';
 import { DUE_SOON_DAYS, dueWords, isDue, TASK_LABELS, type DueState } from '@/shared/maintenance-due';
 import { SafetyNote } from '@/components/ui/safety-note';
@@ -26,11 +27,12 @@ function DueRowView({ row, showBuilding }: { row: DueRow; showBuilding: boolean 
   const router = useRouter();
   const state = STATE_WORDS[row.state];
   return (
-    <Pressable
+    <PressableCard
+      size="compact"
       accessibilityRole="button"
       accessibilityLabel={`${row.tag} ${TASK_LABELS[row.task]}: ${dueWords(row)}`}
       onPress={() => router.push({ pathname: '/panels/[panelId]', params: { panelId: row.panelId } })}
-      style={({ pressed }) => [styles.row, (row.state === 'overdue' || row.state === 'never') && styles.urgent, pressed && styles.pressed]}
+      style={[styles.row, (row.state === 'overdue' || row.state === 'never') && styles.urgent]}
       testID={`due-${row.tag}-${row.task}`}
     >
       <View style={styles.rowHead}>
@@ -48,7 +50,7 @@ function DueRowView({ row, showBuilding }: { row: DueRow; showBuilding: boolean 
       <Text variant="small" tone="faint">
         Condition {row.condition} · {row.basis}
       </Text>
-    </Pressable>
+    </PressableCard>
   );
 }
 
@@ -112,15 +114,9 @@ const styles = StyleSheet.create({
   list: { gap: space.sm },
   row: {
     minHeight: MIN_TOUCH,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
-    padding: space.sm,
     gap: 2,
   },
   urgent: { borderLeftWidth: 4, borderLeftColor: colours.danger },
-  pressed: { opacity: 0.7 },
   rowHead: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexWrap: 'wrap' },
   tag: { backgroundColor: colours.ink, borderRadius: radii.sm, paddingHorizontal: space.sm },
   task: { flexGrow: 1 },

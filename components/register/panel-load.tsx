@@ -1,10 +1,11 @@
 import { useMemo, useState } from 'react';
 import { Pressable, StyleSheet, View } from 'react-native';
+import { cardStyles } from '@/components/ui/card';
 import { PANEL_LOAD_FIGURES, panelLoad } from '@/shared/calc';
 import type { Phase } from '@/shared/domain';
 import type { Circuit, Panel } from '@/shared/schemas';
 import { Text } from '@/components/ui/text';
-import { colours, radii, space } from '@/components/ui/theme';
+import { colours, space } from '@/components/ui/theme';
 
 /** Phase currents further apart than this are worth a look; no standard sets a limit [CP]. */
 const IMBALANCE_FLAG_PCT = 20;
@@ -29,7 +30,7 @@ export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: 
       accessibilityState={{ expanded: open }}
       accessibilityLabel="Panel loading, tap for details"
       onPress={() => setOpen((v) => !v)}
-      style={styles.card}
+      style={[cardStyles.row, styles.card]}
       testID="panel-load"
     >
       <View style={styles.bars}>
@@ -100,11 +101,6 @@ function Fact({ label, value, note, testID }: { label: string; value: string; no
 const styles = StyleSheet.create({
   card: {
     gap: space.md,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
   },
   bars: { gap: space.xs },
   barRow: { flexDirection: 'row', alignItems: 'center', gap: space.sm },

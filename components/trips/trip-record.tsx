@@ -6,6 +6,7 @@
  */
 import { useRouter } from 'expo-router';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import { useCircuitRecord, type AssessedReading } from '@/hooks/use-records';
 import type { BuildingView } from '@/hooks/building-view';
 import type { NuisanceTripFindings } from '@/shared/calc';
@@ -14,11 +15,11 @@ import { THERMAL_COMPONENT_LABELS, type TripEvent } from '@/shared/records';
 import type { Circuit } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { dateTimeWords, dateWords, dueLine } from '@/components/deficiencies/deficiency-format';
-import { Card, RowLink, Section, StatusWord } from '@/components/deficiencies/deficiency-parts';
+import { RowLink, Section, StatusWord } from '@/components/deficiencies/deficiency-parts';
 import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Text } from '@/components/ui/text';
-import { colours, radii, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
+import { colours, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 
 const RECENT = 5;
 
@@ -156,12 +157,12 @@ export function CircuitRecordSummary({ circuitId }: { circuitId: string }) {
     open ? `${open} open deficienc${open === 1 ? 'y' : 'ies'}` : null,
   ].filter(Boolean);
   return (
-    <View style={[styles.findings, findings?.suspectTermination && styles.suspect]} testID="record-summary">
+    <Card size="row" strong style={findings?.suspectTermination && styles.suspect} testID="record-summary">
       {findings?.suspectTermination ? (
         <Text variant="strong">⚠ Trips well below rating with a hot or loose termination: suspect the termination, not the breaker.</Text>
       ) : null}
       <Text variant="small">{parts.join(' · ')}: see the record below the form.</Text>
-    </View>
+    </Card>
   );
 }
 
@@ -169,7 +170,7 @@ export function CircuitRecordSummary({ circuitId }: { circuitId: string }) {
 function TripFindingsBox({ findings, circuit, tripCount }: { findings: NuisanceTripFindings | null; circuit: Circuit; tripCount: number }) {
   if (!findings) {
     return (
-      <Card testID="trip-findings">
+      <Card size="row" testID="trip-findings">
         <Text tone="soft">
           {tripCount > 0
             ? 'Record the breaker’s trip rating on this circuit to judge its trips against it.'
@@ -181,7 +182,7 @@ function TripFindingsBox({ findings, circuit, tripCount }: { findings: NuisanceT
   if (findings.reasons.length === 0) {
     if (tripCount === 0) return null;
     return (
-      <Card testID="trip-findings">
+      <Card size="row" testID="trip-findings">
         <Text>
           {tripCount} trip{tripCount === 1 ? '' : 's'} recorded, none well below the {circuit.ratingA} A rating: nothing here points at a termination.
         </Text>
@@ -189,7 +190,7 @@ function TripFindingsBox({ findings, circuit, tripCount }: { findings: NuisanceT
     );
   }
   return (
-    <View style={[styles.findings, findings.suspectTermination && styles.suspect]} testID="trip-findings" accessibilityRole={findings.suspectTermination ? 'alert' : undefined}>
+    <Card size="row" strong style={findings.suspectTermination && styles.suspect} testID="trip-findings" accessibilityRole={findings.suspectTermination ? 'alert' : undefined}>
       {findings.suspectTermination && (
         <Text variant="heading" testID="suspect-termination">
           ⚠ Trips well below rating with a hot or loose termination: suspect the termination, not the breaker
@@ -204,7 +205,7 @@ function TripFindingsBox({ findings, circuit, tripCount }: { findings: NuisanceT
           • {reason}
         </Text>
       ))}
-    </View>
+    </Card>
   );
 }
 
@@ -227,7 +228,7 @@ function TripRow({ trip, ratingA }: { trip: TripEvent; ratingA: number | null })
         ? `${trip.loadA} A (${Math.round((trip.loadA / ratingA) * 100)} % of ${ratingA} A)`
         : `${trip.loadA} A`;
   return (
-    <Card testID="trip-row">
+    <Card size="row" testID="trip-row">
       <Text variant="strong">{dateTimeWords(trip.occurredAt)}</Text>
       <Text variant="reading" testID="trip-load">
         {load}
@@ -249,7 +250,7 @@ function ReadingRow({ assessed, view }: { assessed: AssessedReading; view: Build
           ? `Trip test at ${reading.testCurrentA ?? '?'} A`
           : 'Visual';
   return (
-    <Card testID={`reading-${reading.kind}`}>
+    <Card size="row" testID={`reading-${reading.kind}`}>
       <View style={styles.inline}>
         <Text variant="strong" style={styles.flex}>
           {what}
@@ -273,13 +274,5 @@ const styles = StyleSheet.create({
   columnWide: { flex: 1, minWidth: 0 },
   inline: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
   flex: { flex: 1 },
-  findings: {
-    gap: space.sm,
-    padding: space.md,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.ruleStrong,
-    backgroundColor: colours.card,
-  },
   suspect: { borderColor: colours.danger, borderWidth: 2, borderLeftWidth: 8, backgroundColor: colours.dangerSoft },
 });

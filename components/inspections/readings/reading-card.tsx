@@ -1,12 +1,13 @@
 /** One reading of an inspection: what was measured where, and what it means. */
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { Card, PressableCard } from '@/components/ui/card';
 import type { Assessment } from '@/shared/assess';
 import { THERMAL_COMPONENT_LABELS, type Reading } from '@/shared/records';
 import type { Circuit } from '@/shared/schemas';
 import { circuitName, fastenerText, READING_KIND_LABELS } from '@/components/inspections/inspection-format';
 import { ReadingAssessment } from './reading-assessment';
 import { Text } from '@/components/ui/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+import { MIN_TOUCH, space } from '@/components/ui/theme';
 
 /** The measured values of a reading as one mono line. */
 export function readingValues(r: Reading, circuit: Circuit | null): string {
@@ -70,21 +71,21 @@ export function ReadingCard({
   );
   if (!onOpen) {
     return (
-      <View style={styles.card} testID={`reading-${reading.kind}`}>
+      <Card size="row" style={styles.card} testID={`reading-${reading.kind}`}>
         {body}
-      </View>
+      </Card>
     );
   }
   return (
-    <Pressable
+    <PressableCard
       accessibilityRole="button"
       accessibilityLabel={`${READING_KIND_LABELS[reading.kind]}: ${readingWhere(reading, circuit)}. ${assessment.summary}`}
       onPress={onOpen}
-      style={({ pressed }) => [styles.card, pressed && styles.pressed]}
+      style={styles.card}
       testID={`reading-${reading.kind}`}
     >
       {body}
-    </Pressable>
+    </PressableCard>
   );
 }
 
@@ -92,12 +93,6 @@ const styles = StyleSheet.create({
   card: {
     minHeight: MIN_TOUCH,
     gap: space.xs,
-    padding: space.md,
-    backgroundColor: colours.card,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    borderRadius: radii.md,
   },
   top: { flexDirection: 'row', justifyContent: 'space-between', alignItems: 'center' },
-  pressed: { opacity: 0.75 },
 });

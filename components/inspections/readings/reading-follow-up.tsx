@@ -2,7 +2,8 @@
  * After a reading is saved: raise a deficiency from what it found (inspectors and admins, one tap,
  * prefilled), or follow the link to the one already raised; and the reading's photos.
  */
-import { Pressable, StyleSheet, View } from 'react-native';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
 import type { AssessedReading } from '@/hooks/use-records';
 import type { Deficiency, Reading } from '@/shared/records';
 import { Button } from '@/components/ui/button';
@@ -52,11 +53,11 @@ export function ReadingFollowUp({
   return (
     <View style={styles.box}>
       {deficiency ? (
-        <Pressable
+        <PressableCard
           accessibilityRole="link"
           accessibilityLabel={`Deficiency raised: ${deficiency.title}. Open it`}
           onPress={() => onOpenDeficiency(deficiency)}
-          style={({ pressed }) => [styles.link, pressed && styles.pressed]}
+          style={styles.link}
           testID="raised-deficiency"
         >
           <PriorityChip priority={deficiency.priority} />
@@ -65,7 +66,7 @@ export function ReadingFollowUp({
             <Text variant="strong">{deficiency.title}</Text>
           </View>
           <Text tone="faint">›</Text>
-        </Pressable>
+        </PressableCard>
       ) : priority !== null && canRaise ? (
         <View style={styles.raise}>
           <Text variant="small">
@@ -97,12 +98,6 @@ const styles = StyleSheet.create({
     flexDirection: 'row',
     alignItems: 'center',
     gap: space.sm,
-    padding: space.md,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.rule,
-    backgroundColor: colours.card,
   },
   linkText: { flex: 1 },
-  pressed: { opacity: 0.7 },
 });

@@ -5,6 +5,7 @@
  */
 import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
 import type { AssessContext } from '@/shared/assess';
 import type { Band, ReadingCreateBody, ReadingFields, ReadingPatchBody } from '@/shared/records';
 import type { Circuit, Panel } from '@/shared/schemas';
@@ -17,7 +18,7 @@ import { checkReading, fromReadingDraft, liveAssessment, toReadingDraft, type Re
 import { ThermalFields, TorqueFields, TripFields } from './reading-fields';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
-import { colours, radii, space } from '@/components/ui/theme';
+import { space } from '@/components/ui/theme';
 
 /** The fields a patch may carry: the inspection, panel and kind of a reading never change. */
 function patchOf(before: ReadingFields, after: ReadingCreateBody): ReadingPatchBody {
@@ -91,7 +92,7 @@ export function ReadingForm(props: ReadingFormProps) {
   );
 
   const judgement = (
-    <View style={styles.live} testID="live-assessment" accessibilityLiveRegion="polite">
+    <Card size="row" strong testID="live-assessment" accessibilityLiveRegion="polite">
       <Text variant="label" tone="soft">WHAT IT MEANS</Text>
       {live.assessment ? (
         <ReadingAssessment assessment={live.assessment} />
@@ -103,7 +104,7 @@ export function ReadingForm(props: ReadingFormProps) {
           ))}
         </>
       )}
-    </View>
+    </Card>
   );
 
   const saveBlock = (
@@ -168,12 +169,4 @@ const styles = StyleSheet.create({
   aside: { flex: 2, gap: space.lg },
   fields: { gap: space.lg },
   actions: { gap: space.sm },
-  live: {
-    gap: space.sm,
-    padding: space.md,
-    borderRadius: radii.md,
-    borderWidth: 1,
-    borderColor: colours.ruleStrong,
-    backgroundColor: colours.card,
-  },
 });
