@@ -12,7 +12,7 @@ import { usePanel } from '@/hooks/use-register';
 import { Button } from '@/components/ui/button';
 import { breakerLabel, directoryText } from '@/components/register/circuit-format';
 import { dateWords, isRealDate } from './deficiency-format';
-import { ChoiceField, TextField } from '@/components/ui/fields';
+import { ChoiceField, Field, FormProblems, TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
 import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
@@ -43,7 +43,7 @@ const PRIORITY_HINTS: Record<Priority, string> = {
 
 export function DeficiencyForm({ panels, initialPanelId, initialCircuitId, dueDays = DEFAULT_DUE_DAYS, onSubmit }: DeficiencyFormProps) {
   const today = todayISO();
-  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => ({
+  const { draft, set, errors, setErrors, text, field } = useFormDraft<Draft>(() => ({
     title: '',
     description: '',
     panelId: initialPanelId,
@@ -88,18 +88,14 @@ export function DeficiencyForm({ panels, initialPanelId, initialCircuitId, dueDa
     <View style={styles.form}>
       <TextField
         label="What is wrong"
-        value={draft.title}
-        onChangeText={set('title')}
-        error={errors.title}
+        {...text('title')}
         placeholder="e.g. Neutral bar overfilled, two neutrals under one screw"
         testID="field-title"
       />
       <TextField
         label="Description (optional)"
-        value={draft.description}
-        onChangeText={set('description')}
+        {...text('description')}
         multiline
-        error={errors.description}
         hint="What you saw, how to find it, what the repair probably needs."
         testID="field-description"
       />
@@ -114,9 +110,7 @@ export function DeficiencyForm({ panels, initialPanelId, initialCircuitId, dueDa
         <CircuitPicker
           key={draft.panelId}
           panelId={draft.panelId}
-          value={draft.circuitId}
-          onChange={set('circuitId')}
-          error={errors.circuitId}
+          {...field('circuitId')}
         />
       )}
       <ChoiceField
@@ -144,11 +138,7 @@ export function DeficiencyForm({ panels, initialPanelId, initialCircuitId, dueDa
         }
         testID="field-due"
       />
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">
-          Some fields need attention (marked ✕ above).
-        </Text>
-      )}
+      <FormProblems errors={errors} />
       <Button label="Raise the deficiency" onPress={submit} testID="save-deficiency" />
     </View>
   );
@@ -171,8 +161,7 @@ function CircuitPicker({
   const selected = circuits.find((c) => c.id === value);
   const label = selected ? `${selected.position} · ${directoryText(selected)}` : 'The panel as a whole';
   return (
-    <View style={styles.picker}>
-      <Text variant="label" tone="soft">Circuit (optional)</Text>
+    <Field label="Circuit (optional)" error={error}>
       <Pressable
         accessibilityRole="button"
         accessibilityLabel={`Circuit: ${label}. ${open ? 'Close the list' : 'Choose a circuit'}`}
@@ -183,7 +172,6 @@ function CircuitPicker({
         <Text style={styles.pickerText}>{label}</Text>
         <Text tone="copper" variant="strong">{open ? 'Close ▲' : 'Choose ▼'}</Text>
       </Pressable>
-      {error ? <Text variant="small" tone="danger">✕ {error}</Text> : null}
       {open && (
         <ScrollView style={styles.list} nestedScrollEnabled>
           <PickRow label="The panel as a whole" selected={value === null} onPress={() => { onChange(null); setOpen(false); }} testID="circuit-option-none" />
@@ -202,7 +190,7 @@ function CircuitPicker({
           ))}
         </ScrollView>
       )}
-    </View>
+    </Field>
   );
 }
 
@@ -220,7 +208,6 @@ function PickRow({ label, detail, selected, onPress, testID }: { label: string; 
 
 const styles = StyleSheet.create({
   form: { gap: space.lg },
-  picker: { gap: space.xs },
   pickerButton: {
     minHeight: MIN_TOUCH,
     borderWidth: 1,

@@ -12,7 +12,7 @@ import {
 } from '@/shared/records';
 import { fieldErrors, type Panel } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { ChoiceField, chipStyles, TextField } from '@/components/ui/fields';
+import { chipStyles, ChoiceField, Field, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { lightLoadWarning, needsLoad } from './inspection-format';
 import { Text } from '@/components/ui/text';
@@ -76,8 +76,11 @@ function PanelPicker({
   const all = panels.length > 1 && value.length === panels.length;
   const clearTo = panels.filter((p) => locked.includes(p.id)).map((p) => p.id);
   return (
-    <View style={styles.field}>
-      <Text variant="label" tone="soft">Panels covered</Text>
+    <Field
+      label="Panels covered"
+      error={error}
+      hint={locked.length > 0 ? 'Panels that already have readings stay in the inspection.' : 'One panel for a panel inspection; several for a round of the building.'}
+    >
       <View style={[chipStyles.chips, styles.centred]} accessibilityRole="list" accessibilityLabel="Panels covered">
         {panels.map((panel) => {
           const selected = value.includes(panel.id);
@@ -109,14 +112,7 @@ function PanelPicker({
           />
         )}
       </View>
-      {error ? (
-        <Text variant="small" tone="danger" accessibilityRole="alert">✕ {error}</Text>
-      ) : locked.length > 0 ? (
-        <Text variant="small" tone="faint">Panels that already have readings stay in the inspection.</Text>
-      ) : (
-        <Text variant="small" tone="faint">One panel for a panel inspection; several for a round of the building.</Text>
-      )}
-    </View>
+    </Field>
   );
 }
 
@@ -134,7 +130,7 @@ export interface InspectionFormProps {
 const samePanels = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((id) => b.includes(id));
 
 export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, lockedPanelIds = [] }: InspectionFormProps) {
-  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => toDraft(initial));
+  const { draft, errors, setErrors, text, field } = useFormDraft<Draft>(() => toDraft(initial));
   const preview = fromDraft(draft);
   const submit = () => {
     const parsed = inspectionCreateBody.safeParse(preview);
@@ -155,56 +151,44 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
       <ChoiceField
         label="Kind of inspection"
         choices={INSPECTION_KINDS.map((value) => ({ value, label: INSPECTION_KIND_LABELS[value] }))}
-        value={draft.kind}
-        onChange={set('kind')}
-        error={errors.kind}
+        {...field('kind')}
       />
       <PanelPicker
         panels={panels}
-        value={draft.panelIds}
-        onChange={set('panelIds')}
-        error={errors.panelIds}
+        {...field('panelIds')}
         locked={lockedPanelIds}
       />
       <View style={styles.row}>
         <View style={styles.cell}>
           <TextField
             label="Date"
-            value={draft.performedOn}
-            onChangeText={set('performedOn')}
+            {...text('performedOn')}
             mono
             placeholder="YYYY-MM-DD"
-            error={errors.performedOn}
             testID="field-performed-on"
           />
         </View>
         <View style={styles.cell}>
           <TextField
             label="Ambient (°C)"
-            value={draft.ambientC}
-            onChangeText={set('ambientC')}
+            {...text('ambientC')}
             keyboardType="numbers-and-punctuation"
             mono
-            error={errors.ambientC}
             testID="field-ambient"
           />
         </View>
       </View>
       <TextField
         label="Load at the time (% of normal)"
-        value={draft.loadPct}
-        onChangeText={set('loadPct')}
+        {...text('loadPct')}
         keyboardType="decimal-pad"
         mono
-        error={errors.loadPct}
         hint={needsLoad(draft.kind) ? 'NFPA 70B: a thermal survey wants at least 40 % of normal load.' : undefined}
         testID="field-load-pct"
       />
       <InspectionLoadWarning kind={draft.kind} loadPct={typeof preview.loadPct === 'number' ? preview.loadPct : null} />
-      <TextField label="Notes" value={draft.notes} onChangeText={set('notes')} multiline error={errors.notes} testID="field-notes" />
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
-      )}
+      <TextField label="Notes" {...text('notes')} multiline testID="field-notes" />
+      <FormProblems errors={errors} />
       <Button label={isNew ? 'Start inspection' : 'Save details'} onPress={submit} testID="save-inspection" />
       {onCancel && <Button label="Cancel" tone="secondary" onPress={onCancel} />}
     </View>
@@ -214,7 +198,6 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
 const styles = StyleSheet.create({
   centred: { alignItems: 'center' },
   form: { gap: space.lg },
-  field: { gap: space.xs },
   row: { flexDirection: 'row', gap: space.md },
   cell: { flex: 1 },
   warning: {

@@ -8,7 +8,7 @@ import { StyleSheet, TextInput, View } from 'react-native';
 import { bandCreateBody, type BandCreateBody } from '@/shared/records';
 import { fieldErrors } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/fields';
+import { FormProblems, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -81,7 +81,7 @@ export function BandForm({
   /** resolves with the server's field errors, or null when saved */
   onSave: (body: BandCreateBody) => Promise<Record<string, string> | null>;
 }) {
-  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => NEW_BAND_DRAFT);
+  const { draft, set, errors, setErrors, text } = useFormDraft<Draft>(() => NEW_BAND_DRAFT);
   const setPoint = (index: number, key: keyof PointDraft) => (text: string) => {
     set('points')(draft.points.map((p, i) => (i === index ? { ...p, [key]: text } : p)));
     setErrors(({ [`points.${index}.${key}`]: _gone, points: _order, ...rest }) => rest);
@@ -109,26 +109,20 @@ export function BandForm({
         <View style={styles.column}>
           <TextField
             label="Label"
-            value={draft.label}
-            onChangeText={set('label')}
-            error={errors.label}
+            {...text('label')}
             placeholder="e.g. Bolt-on 1P 20 A thermal-magnetic"
             testID="band-label"
           />
           <TextField
             label="Rating (A)"
-            value={draft.ratingA}
-            onChangeText={set('ratingA')}
+            {...text('ratingA')}
             keyboardType="number-pad"
             mono
-            error={errors.ratingA}
             testID="band-rating"
           />
           <TextField
             label="Source"
-            value={draft.source}
-            onChangeText={set('source')}
-            error={errors.source}
+            {...text('source')}
             hint="The maker’s curve number and edition, so anyone can check the points against it."
             testID="band-source"
           />
@@ -136,22 +130,18 @@ export function BandForm({
             <View style={styles.cell}>
               <TextField
                 label="Instantaneous pickup (× rating)"
-                value={draft.instantaneousMultiple}
-                onChangeText={set('instantaneousMultiple')}
+                {...text('instantaneousMultiple')}
                 keyboardType="decimal-pad"
                 mono
-                error={errors.instantaneousMultiple}
                 testID="band-instantaneous"
               />
             </View>
             <View style={styles.cell}>
               <TextField
                 label="Tolerance (± %)"
-                value={draft.instantaneousTolerancePct}
-                onChangeText={set('instantaneousTolerancePct')}
+                {...text('instantaneousTolerancePct')}
                 keyboardType="decimal-pad"
                 mono
-                error={errors.instantaneousTolerancePct}
                 testID="band-tolerance"
               />
             </View>
@@ -219,9 +209,7 @@ export function BandForm({
         </Text>
         {offline && <Text variant="small" tone="warn">⚠ No connection right now: your draft stays here until it can be saved.</Text>}
       </View>
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
-      )}
+      <FormProblems errors={errors} />
       {failure && (
         <Text tone="danger" accessibilityRole="alert" testID="band-save-error">
           Not saved: {failure} Your draft is kept.

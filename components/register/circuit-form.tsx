@@ -17,7 +17,7 @@ import { circuitCreateBody, fieldErrors, type Circuit, type CircuitFields, type 
 import { BandPicker } from './band-picker';
 import { Button } from '@/components/ui/button';
 import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-format';
-import { ChoiceField, ReadOnlyField, TextField, ToggleField } from '@/components/ui/fields';
+import { ChoiceField, FormProblems, ReadOnlyField, TextField, ToggleField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -161,7 +161,7 @@ export interface CircuitFormProps {
 }
 
 export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete }: CircuitFormProps) {
-  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => toDraft(initial));
+  const { draft, set, errors, setErrors, text, field } = useFormDraft<Draft>(() => toDraft(initial));
   const threePhase = SYSTEM_INFO[panel.system].phases === 3;
   const isSpace = draft.status === 'space';
 
@@ -194,9 +194,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
       <CircuitWarningsBox warnings={warnings} />
       <TextField
         label="Directory description"
-        value={draft.description}
-        onChangeText={set('description')}
-        error={errors.description}
+        {...text('description')}
         hint="Specific purpose, as it should read on the door: “Exam 2 receptacles”, “RTU-1”."
         testID="field-description"
         editable={!isSpace}
@@ -204,19 +202,15 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
       <ChoiceField
         label="Status"
         choices={(['in-use', 'spare', 'space'] as const).map((value) => ({ value, label: STATUS_LABELS[value] }))}
-        value={draft.status}
-        onChange={set('status')}
-        error={errors.status}
+        {...field('status')}
       />
       <View style={styles.row}>
         <View style={styles.cell}>
           <TextField
             label="Position"
-            value={draft.position}
-            onChangeText={set('position')}
+            {...text('position')}
             keyboardType="number-pad"
             mono
-            error={errors.position}
             hint={phases ? `phase ${phases}` : undefined}
             testID="field-position"
           />
@@ -237,60 +231,48 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
       <ChoiceField
         label="Poles"
         choices={[1, 2, 3].filter((p) => threePhase || p < 3).map((p) => ({ value: p as 1 | 2 | 3, label: `${p}P` }))}
-        value={draft.poles}
-        onChange={set('poles')}
-        error={errors.poles}
+        {...field('poles')}
       />
       {!isSpace && (
         <>
           <ChoiceField
             label="Breaker type"
             choices={BREAKER_TYPES.map((value) => ({ value, label: BREAKER_TYPE_LABELS[value] }))}
-            value={draft.breakerType}
-            onChange={set('breakerType')}
-            error={errors.breakerType}
+            {...field('breakerType')}
           />
           <ChoiceField
             label="Load kind"
             choices={LOAD_KINDS.map((value) => ({ value, label: LOAD_KIND_LABELS[value] }))}
-            value={draft.loadKind}
-            onChange={set('loadKind')}
-            error={errors.loadKind}
+            {...field('loadKind')}
           />
           <View style={styles.row}>
             <View style={styles.cell}>
               <TextField
                 label="Connected load (VA)"
-                value={draft.loadVA}
-                onChangeText={set('loadVA')}
+                {...text('loadVA')}
                 keyboardType="number-pad"
                 mono
-                error={errors.loadVA}
                 testID="field-load"
               />
             </View>
             <View style={styles.cell}>
               <TextField
                 label="One-way length (ft)"
-                value={draft.lengthFt}
-                onChangeText={set('lengthFt')}
+                {...text('lengthFt')}
                 keyboardType="decimal-pad"
                 mono
-                error={errors.lengthFt}
                 testID="field-length"
               />
             </View>
           </View>
-          <ToggleField label="Continuous load (3 h or more)" value={draft.continuous} onChange={set('continuous')} />
+          <ToggleField label="Continuous load (3 h or more)" {...field('continuous')} />
           <ChoiceField
             label="Conductor size"
             choices={[
               { value: null, label: 'Not recorded' },
               ...CONDUCTOR_SIZES.map((s) => ({ value: s, label: conductorSizeLabel(s) })),
             ]}
-            value={draft.conductorSize}
-            onChange={set('conductorSize')}
-            error={errors.conductorSize}
+            {...field('conductorSize')}
           />
           <ChoiceField
             label="Conductor material"
@@ -298,14 +280,12 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
               { value: 'Cu' as const, label: 'Copper (Cu)' },
               { value: 'Al' as const, label: 'Aluminium (Al)' },
             ]}
-            value={draft.conductorMaterial}
-            onChange={set('conductorMaterial')}
+            {...field('conductorMaterial')}
           />
           <ChoiceField
             label="Insulation rating"
             choices={[60, 75, 90].map((t) => ({ value: t as InsulationTempC, label: `${t} °C` }))}
-            value={draft.insulationTempC}
-            onChange={set('insulationTempC')}
+            {...field('insulationTempC')}
           />
           <ChoiceField
             label="Termination rating"
@@ -313,26 +293,21 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
               { value: null, label: `As the panel (${panelTermination(panel)})` },
               ...[60, 75, 90].map((t) => ({ value: t as InsulationTempC | null, label: `${t} °C` })),
             ]}
-            value={draft.terminationTempC}
-            onChange={set('terminationTempC')}
+            {...field('terminationTempC')}
             hint="What this breaker’s terminals are listed and marked for, where it differs from the panel (NEC 110.14(C))."
           />
-          <ToggleField label="Handle lock fitted" value={draft.handleLock} onChange={set('handleLock')} />
+          <ToggleField label="Handle lock fitted" {...field('handleLock')} />
           {numberOrNull(draft.ratingA) ? (
             <BandPicker
               ratingA={numberOrNull(draft.ratingA) as number}
-              value={draft.bandId}
-              onChange={set('bandId')}
-              error={errors.bandId}
+              {...field('bandId')}
             />
           ) : null}
         </>
       )}
-      <TextField label="Notes" value={draft.notes} onChangeText={set('notes')} multiline error={errors.notes} />
+      <TextField label="Notes" {...text('notes')} multiline />
 
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
-      )}
+      <FormProblems errors={errors} />
       <Button label={isNew ? 'Add circuit' : 'Save circuit'} onPress={submit} testID="save-circuit" />
       {onDelete && <Button label="Delete circuit…" tone="secondary" onPress={onDelete} />}
     </View>

@@ -3,9 +3,8 @@ import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type Insula
 import { panelLayout } from '@/shared/calc';
 import { fieldErrors, panelCreateBody, type Circuit, type Panel, type PanelPatchBody } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { ChoiceField, TextField } from '@/components/ui/fields';
+import { ChoiceField, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
-import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
 
@@ -23,7 +22,7 @@ export interface PanelFormProps {
 }
 
 export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
-  const { draft, set, errors, setErrors } = useFormDraft(() => ({
+  const { draft, errors, setErrors, text, field } = useFormDraft(() => ({
     tag: panel.tag,
     location: panel.location,
     kind: panel.kind,
@@ -69,36 +68,31 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
     <View style={styles.form}>
       <View style={styles.row}>
         <View style={styles.cell}>
-          <TextField label="Tag" value={draft.tag} onChangeText={set('tag')} error={errors.tag} mono testID="field-tag" />
+          <TextField label="Tag" {...text('tag')} mono testID="field-tag" />
         </View>
         <View style={styles.cell}>
-          <TextField label="Spaces" value={draft.spaces} onChangeText={set('spaces')} error={errors.spaces} keyboardType="number-pad" mono testID="field-spaces" />
+          <TextField label="Spaces" {...text('spaces')} keyboardType="number-pad" mono testID="field-spaces" />
         </View>
       </View>
-      <TextField label="Location" value={draft.location} onChangeText={set('location')} error={errors.location} />
+      <TextField label="Location" {...text('location')} />
       <ChoiceField
         label="Kind"
         choices={PANEL_KINDS.map((value) => ({ value, label: KIND_LABELS[value] }))}
-        value={draft.kind}
-        onChange={set('kind')}
+        {...field('kind')}
       />
       <ChoiceField
         label="System"
         choices={SYSTEMS.map((value) => ({ value: value as PanelSystem, label: SYSTEM_INFO[value].label }))}
-        value={draft.system}
-        onChange={set('system')}
-        error={errors.system}
+        {...field('system')}
       />
       <View style={styles.row}>
         <View style={styles.cell}>
-          <TextField label="Bus rating (A)" value={draft.busRatingA} onChangeText={set('busRatingA')} error={errors.busRatingA} keyboardType="number-pad" mono testID="field-bus" />
+          <TextField label="Bus rating (A)" {...text('busRatingA')} keyboardType="number-pad" mono testID="field-bus" />
         </View>
         <View style={styles.cell}>
           <TextField
             label="Main breaker (A)"
-            value={draft.mainRatingA}
-            onChangeText={set('mainRatingA')}
-            error={errors.mainRatingA}
+            {...text('mainRatingA')}
             hint="Leave blank for main lugs only"
             keyboardType="number-pad"
             mono
@@ -111,37 +105,32 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
           { value: null, label: 'Not recorded' },
           ...([60, 75, 90] as const).map((t) => ({ value: t as InsulationTempC | null, label: `${t} °C` })),
         ]}
-        value={draft.terminationTempC}
-        onChange={set('terminationTempC')}
-        error={errors.terminationTempC}
+        {...field('terminationTempC')}
         hint="From the panel’s label. Not recorded: NEC 110.14(C)(1) takes 60 °C for circuits of 100 A or less or 14–1 AWG."
       />
       <View style={styles.row}>
         <View style={styles.cell}>
-          <TextField label="Short-circuit rating (kA)" value={draft.shortCircuitKA} onChangeText={set('shortCircuitKA')} error={errors.shortCircuitKA} keyboardType="decimal-pad" mono />
+          <TextField label="Short-circuit rating (kA)" {...text('shortCircuitKA')} keyboardType="decimal-pad" mono />
         </View>
         <View style={styles.cell}>
-          <TextField label="Installed on" value={draft.installedOn} onChangeText={set('installedOn')} error={errors.installedOn} placeholder="YYYY-MM-DD" mono />
+          <TextField label="Installed on" {...text('installedOn')} placeholder="YYYY-MM-DD" mono />
         </View>
       </View>
       <View style={styles.row}>
         <View style={styles.cell}>
-          <TextField label="Maker" value={draft.maker} onChangeText={set('maker')} error={errors.maker} />
+          <TextField label="Maker" {...text('maker')} />
         </View>
         <View style={styles.cell}>
-          <TextField label="Model" value={draft.model} onChangeText={set('model')} error={errors.model} />
+          <TextField label="Model" {...text('model')} />
         </View>
       </View>
       <ChoiceField
         label="Equipment condition (NFPA 70B)"
         hint="1 like new · 2 deviations or earlier repairs · 3 missed maintenance or urgent findings"
         choices={[1, 2, 3].map((c) => ({ value: c as EquipmentCondition, label: `Condition ${c}` }))}
-        value={draft.condition}
-        onChange={set('condition')}
+        {...field('condition')}
       />
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
-      )}
+      <FormProblems errors={errors} />
       <Button label="Save panel" onPress={submit} testID="save-panel" />
     </View>
   );

@@ -9,9 +9,8 @@ import { tripCreateBody, type TripCreateBody } from '@/shared/records';
 import { fieldErrors, type Circuit } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { isRealDate } from '@/components/deficiencies/deficiency-format';
-import { TextField } from '@/components/ui/fields';
+import { FormProblems, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
-import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
 
@@ -36,7 +35,7 @@ export function loadAgainstRating(loadA: number | null, ratingA: number | null):
 }
 
 export function TripForm({ circuit, onSubmit }: { circuit: Circuit; onSubmit: (body: TripCreateBody) => void }) {
-  const { draft, set, errors, setErrors } = useFormDraft<Draft>(() => ({ ...localNow(), loadA: '', circumstances: '' }));
+  const { draft, errors, setErrors, text } = useFormDraft<Draft>(() => ({ ...localNow(), loadA: '', circumstances: '' }));
 
   const submit = () => {
     const extra: Record<string, string> = {};
@@ -74,36 +73,28 @@ export function TripForm({ circuit, onSubmit }: { circuit: Circuit; onSubmit: (b
     <View style={styles.form}>
       <View style={styles.row}>
         <View style={styles.cell}>
-          <TextField label="Date" value={draft.date} onChangeText={set('date')} placeholder="YYYY-MM-DD" mono error={errors.date} testID="field-trip-date" />
+          <TextField label="Date" {...text('date')} placeholder="YYYY-MM-DD" mono testID="field-trip-date" />
         </View>
         <View style={styles.cell}>
-          <TextField label="Time" value={draft.time} onChangeText={set('time')} placeholder="HH:MM" mono error={errors.time} testID="field-trip-time" />
+          <TextField label="Time" {...text('time')} placeholder="HH:MM" mono testID="field-trip-time" />
         </View>
       </View>
       <TextField
         label="Load at the time (A, optional)"
-        value={draft.loadA}
-        onChangeText={set('loadA')}
+        {...text('loadA')}
         keyboardType="decimal-pad"
         mono
-        error={errors.loadA}
         hint={loadHint ?? 'From a clamp meter or the building system, if anyone knows: it tells an overload from a nuisance trip.'}
         testID="field-trip-load"
       />
       <TextField
         label="What was happening"
-        value={draft.circumstances}
-        onChangeText={set('circumstances')}
+        {...text('circumstances')}
         multiline
-        error={errors.circumstances}
         placeholder="e.g. Tripped twice this morning with only the exam lights on"
         testID="field-trip-circumstances"
       />
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">
-          Some fields need attention (marked ✕ above).
-        </Text>
-      )}
+      <FormProblems errors={errors} />
       <Button label="Record the trip" onPress={submit} testID="save-trip" />
     </View>
   );

@@ -2,7 +2,12 @@ import { Pressable, StyleSheet, TextInput, View, type TextInputProps } from 'rea
 import { Text } from './text';
 import { colours, fonts, MIN_TOUCH, radii, space } from './theme';
 
-function FieldFrame({ label, error, hint, children }: { label: string; error?: string; hint?: string; children: React.ReactNode }) {
+/**
+ * One field of a form: its label, the control, then the ✕ error (read out as an alert) or a hint.
+ * TextField and ChoiceField are built on it; a form's own control (a picker, a checklist) sits in
+ * it so every field reads the same.
+ */
+export function Field({ label, error, hint, children }: { label: string; error?: string; hint?: string; children: React.ReactNode }) {
   return (
     <View style={styles.field}>
       <Text variant="label" tone="soft">{label}</Text>
@@ -18,6 +23,16 @@ function FieldFrame({ label, error, hint, children }: { label: string; error?: s
   );
 }
 
+/** Under a form whose check failed: the ✕ marks are above, this says to look for them. */
+export function FormProblems({ errors }: { errors: Record<string, string> }) {
+  if (Object.keys(errors).length === 0) return null;
+  return (
+    <Text tone="danger" accessibilityRole="alert">
+      Some fields need attention (marked ✕ above).
+    </Text>
+  );
+}
+
 export interface TextFieldProps extends Omit<TextInputProps, 'style'> {
   label: string;
   error?: string;
@@ -27,7 +42,7 @@ export interface TextFieldProps extends Omit<TextInputProps, 'style'> {
 
 export function TextField({ label, error, hint, mono, multiline, ...input }: TextFieldProps) {
   return (
-    <FieldFrame label={label} error={error} hint={hint}>
+    <Field label={label} error={error} hint={hint}>
       <TextInput
         accessibilityLabel={label}
         aria-invalid={!!error}
@@ -36,7 +51,7 @@ export function TextField({ label, error, hint, mono, multiline, ...input }: Tex
         style={[styles.input, mono && styles.mono, multiline && styles.multiline, !!error && styles.inputError]}
         {...input}
       />
-    </FieldFrame>
+    </Field>
   );
 }
 
@@ -64,7 +79,7 @@ export function ChoiceField<T extends string | number | boolean | null>({
   disabled?: boolean;
 }) {
   return (
-    <FieldFrame label={label} error={error} hint={hint}>
+    <Field label={label} error={error} hint={hint}>
       <View style={chipStyles.chips} accessibilityRole="radiogroup" accessibilityLabel={label}>
         {choices.map((choice) => {
           const selected = choice.value === value;
@@ -86,7 +101,7 @@ export function ChoiceField<T extends string | number | boolean | null>({
           );
         })}
       </View>
-    </FieldFrame>
+    </Field>
   );
 }
 

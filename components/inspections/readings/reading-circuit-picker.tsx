@@ -6,6 +6,7 @@ import { useState } from 'react';
 import { Pressable, ScrollView, StyleSheet, TextInput, View } from 'react-native';
 import type { Circuit } from '@/shared/schemas';
 import { circuitName } from '@/components/inspections/inspection-format';
+import { Field } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
 import { colours, fonts, MIN_TOUCH, radii, space } from '@/components/ui/theme';
 
@@ -46,8 +47,7 @@ export function ReadingCircuitPicker({
   };
   const current = chosen ? circuitName(chosen) : (noneLabel ?? 'Choose a circuit');
   return (
-    <View style={styles.field}>
-      <Text variant="label" tone="soft">{label}</Text>
+    <Field label={label} error={error} hint={hint}>
       <Pressable
         accessibilityRole="button"
         accessibilityLabel={`${label}: ${current}. ${open ? 'Close the list' : 'Change'}`}
@@ -93,12 +93,7 @@ export function ReadingCircuitPicker({
           </ScrollView>
         </View>
       )}
-      {error ? (
-        <Text variant="small" tone="danger" accessibilityRole="alert">✕ {error}</Text>
-      ) : hint ? (
-        <Text variant="small" tone="faint">{hint}</Text>
-      ) : null}
-    </View>
+    </Field>
   );
 }
 
@@ -136,7 +131,6 @@ function Option({
 }
 
 const styles = StyleSheet.create({
-  field: { gap: space.xs },
   current: {
     minHeight: MIN_TOUCH,
     flexDirection: 'row',

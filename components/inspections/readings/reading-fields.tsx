@@ -20,13 +20,15 @@ import { fallbackIn, type ReadingDraft } from './reading-draft';
 import { ReadingCircuitPicker } from './reading-circuit-picker';
 import { MakerValueCheck, SCREW_HINT, SCREW_LABELS, ScrewSizeField, TestPulseField } from './reading-extras';
 import { Text } from '@/components/ui/text';
+import type { DraftSetter, FormBinders } from '@/components/ui/use-form-draft';
 import { colours, radii, space } from '@/components/ui/theme';
 
-export type DraftSetter = <K extends keyof ReadingDraft>(key: K) => (value: ReadingDraft[K]) => void;
 
 interface KindFieldsProps {
   draft: ReadingDraft;
-  set: DraftSetter;
+  set: DraftSetter<ReadingDraft>;
+  text: FormBinders<ReadingDraft>['text'];
+  field: FormBinders<ReadingDraft>['field'];
   errors: Record<string, string>;
   panel: Panel;
   circuits: Circuit[];
@@ -41,7 +43,7 @@ function Cell({ children }: { children: React.ReactNode }) {
 
 // ---------- thermal ----------
 
-export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }: KindFieldsProps & { ambientC: number | null }) {
+export function ThermalFields({ draft, set, errors, text, field, panel, circuits, ambientC }: KindFieldsProps & { ambientC: number | null }) {
   const phases = READING_PHASES.filter((p) => p !== 'C' || SYSTEM_INFO[panel.system].phases === 3);
   const chooseBasis = (basis: ReadingDraft['referenceBasis']) => {
     set('referenceBasis')(basis);
@@ -53,46 +55,36 @@ export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }:
       <ChoiceField
         label="Component"
         choices={THERMAL_COMPONENTS.map((value) => ({ value, label: THERMAL_COMPONENT_LABELS[value] }))}
-        value={draft.component}
-        onChange={set('component')}
-        error={errors.component}
+        {...field('component')}
       />
       <ChoiceField
         label="Phase"
         choices={[{ value: null, label: 'Not recorded' }, ...phases.map((p) => ({ value: p, label: p === 'N' ? 'Neutral' : p }))]}
-        value={draft.phase}
-        onChange={set('phase')}
-        error={errors.phase}
+        {...field('phase')}
       />
       <ReadingCircuitPicker
         label="Circuit (optional)"
         circuits={circuits}
-        value={draft.circuitId}
-        onChange={set('circuitId')}
+        {...field('circuitId')}
         noneLabel="No circuit: bus, main lugs or the enclosure"
-        error={errors.circuitId}
         testID="field-circuit"
       />
       <Row>
         <Cell>
           <TextField
             label="Temperature (°C)"
-            value={draft.temperatureC}
-            onChangeText={set('temperatureC')}
+            {...text('temperatureC')}
             keyboardType="decimal-pad"
             mono
-            error={errors.temperatureC}
             testID="field-temperature"
           />
         </Cell>
         <Cell>
           <TextField
             label="Reference (°C)"
-            value={draft.referenceC}
-            onChangeText={set('referenceC')}
+            {...text('referenceC')}
             keyboardType="decimal-pad"
             mono
-            error={errors.referenceC}
             testID="field-reference"
           />
         </Cell>
@@ -112,22 +104,18 @@ export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }:
         <Cell>
           <TextField
             label="Measured load (A)"
-            value={draft.loadA}
-            onChangeText={set('loadA')}
+            {...text('loadA')}
             keyboardType="decimal-pad"
             mono
-            error={errors.loadA}
             testID="field-load-a"
           />
         </Cell>
         <Cell>
           <TextField
             label="Reference load (A)"
-            value={draft.referenceLoadA}
-            onChangeText={set('referenceLoadA')}
+            {...text('referenceLoadA')}
             keyboardType="decimal-pad"
             mono
-            error={errors.referenceLoadA}
             testID="field-reference-load-a"
           />
         </Cell>
@@ -138,7 +126,7 @@ export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }:
           taken at or above it is never lowered; under 40 % it is too lightly loaded to judge (NFPA 70B).
         </Text>
       )}
-      <TestPulseField value={draft.duringTestPulse} onChange={set('duringTestPulse')} />
+      <TestPulseField {...field('duringTestPulse')} />
     </>
   );
 }
@@ -146,7 +134,7 @@ export function ThermalFields({ draft, set, errors, panel, circuits, ambientC }:
 // ---------- torque ----------
 
 
-export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) {
+export function TorqueFields({ draft, set, errors, text, field, circuits }: KindFieldsProps) {
   const unit = draft.unit ?? 'lbf-in';
   const table = fallbackIn(unit, draft.conductorSize, draft.screw, draft.screwSize);
   const usesTable = draft.specSource === 'fallback-table';
@@ -179,9 +167,7 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
       />
       <TextField
         label="Fastener"
-        value={draft.fastener}
-        onChangeText={set('fastener')}
-        error={errors.fastener}
+        {...text('fastener')}
         placeholder={draft.circuitId ? 'e.g. load terminal' : 'e.g. phase B line lug'}
         hint="Which screw or lug, so the next check finds the same one."
         testID="field-fastener"
@@ -262,11 +248,9 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
       />
       <TextField
         label={`Specified torque (${unit})`}
-        value={draft.specified}
-        onChangeText={set('specified')}
+        {...text('specified')}
         keyboardType="decimal-pad"
         mono
-        error={errors.specified}
         hint={usesTable && table !== null ? 'Filled from the UL 486A-B table: change it only to the maker’s figure.' : undefined}
         testID="field-specified"
       />
@@ -277,9 +261,7 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
           { value: 'held' as const, label: 'Held at the value' },
           { value: 'turned' as const, label: 'Turned' },
         ]}
-        value={draft.asFound}
-        onChange={set('asFound')}
-        error={errors.asFound}
+        {...field('asFound')}
         hint="Held: it did not move at the specified torque. Turned: it moved before reaching it."
       />
       <Row>
@@ -287,11 +269,9 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
           <Cell>
             <TextField
               label={`Turned at (${unit})`}
-              value={draft.asFoundValue}
-              onChangeText={set('asFoundValue')}
+              {...text('asFoundValue')}
               keyboardType="decimal-pad"
               mono
-              error={errors.asFoundValue}
               testID="field-as-found"
             />
           </Cell>
@@ -299,11 +279,9 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
         <Cell>
           <TextField
             label={`As left (${unit})`}
-            value={draft.asLeft}
-            onChangeText={set('asLeft')}
+            {...text('asLeft')}
             keyboardType="decimal-pad"
             mono
-            error={errors.asLeft}
             testID="field-as-left"
           />
         </Cell>
@@ -314,7 +292,7 @@ export function TorqueFields({ draft, set, errors, circuits }: KindFieldsProps) 
 
 // ---------- trip test ----------
 
-export function TripFields({ draft, set, errors, circuits, bands }: KindFieldsProps & { bands: Band[] | undefined }) {
+export function TripFields({ draft, text, field, circuits, bands }: KindFieldsProps & { bands: Band[] | undefined }) {
   const breakers = circuits.filter((c) => c.status !== 'space');
   const circuit = breakers.find((c) => c.id === draft.circuitId) ?? null;
   const ratingA = circuit?.ratingA ?? null;
@@ -336,20 +314,16 @@ export function TripFields({ draft, set, errors, circuits, bands }: KindFieldsPr
       <ReadingCircuitPicker
         label="Circuit tested"
         circuits={breakers}
-        value={draft.circuitId}
-        onChange={set('circuitId')}
-        error={errors.circuitId}
+        {...field('circuitId')}
         detail={(c) => breakerLabel(c)}
         hint={circuit ? (ratingA ? `Trip rating ${ratingA} A (${breakerLabel(circuit)})` : 'This circuit has no trip rating recorded: add it on the schedule to judge the test.') : undefined}
         testID="field-circuit"
       />
       <TextField
         label="Test current (A)"
-        value={draft.testCurrentA}
-        onChangeText={set('testCurrentA')}
+        {...text('testCurrentA')}
         keyboardType="decimal-pad"
         mono
-        error={errors.testCurrentA}
         hint={pct !== null ? `${pct} % of the ${ratingA} A rating` : ratingA ? `300 % of the ${ratingA} A rating is ${ratingA * 3} A` : undefined}
         testID="field-test-current"
       />
@@ -359,27 +333,21 @@ export function TripFields({ draft, set, errors, circuits, bands }: KindFieldsPr
           { value: true, label: 'Tripped' },
           { value: false, label: 'Did not trip' },
         ]}
-        value={draft.tripped}
-        onChange={set('tripped')}
-        error={errors.tripped}
+        {...field('tripped')}
       />
       {draft.tripped === true && (
         <TextField
           label="Time to trip (s)"
-          value={draft.tripTimeS}
-          onChangeText={set('tripTimeS')}
+          {...text('tripTimeS')}
           keyboardType="decimal-pad"
           mono
-          error={errors.tripTimeS}
           testID="field-trip-time"
         />
       )}
       <ChoiceField
         label="Time-current band"
         choices={bandChoices}
-        value={draft.bandId}
-        onChange={set('bandId')}
-        error={errors.bandId}
+        {...field('bandId')}
         hint={
           chosenBand && ratingA && chosenBand.ratingA !== ratingA
             ? `This band is for a ${chosenBand.ratingA} A breaker; the circuit is ${ratingA} A.`

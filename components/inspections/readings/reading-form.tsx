@@ -10,14 +10,14 @@ import type { AssessContext } from '@/shared/assess';
 import type { Band, ReadingCreateBody, ReadingFields, ReadingPatchBody } from '@/shared/records';
 import type { Circuit, Panel } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/fields';
+import { FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields } from '@/components/ui/form-values';
 import { READING_KIND_LABELS } from '@/components/inspections/inspection-format';
 import { ReadingAssessment } from './reading-assessment';
 import { checkReading, fromReadingDraft, liveAssessment, toReadingDraft, type ReadingDraft } from './reading-draft';
 import { ThermalFields, TorqueFields, TripFields } from './reading-fields';
 import { Text } from '@/components/ui/text';
-import { useFormDraft } from '@/components/ui/use-form-draft';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
 
 /** The fields a patch may carry: the inspection, panel and kind of a reading never change. */
@@ -81,13 +81,14 @@ export function ReadingForm(props: ReadingFormProps) {
     setJustSaved(true);
   };
 
-  const fieldProps = { draft, set: edit, errors, panel, circuits };
+  const { text, field } = bindForm(draft, edit, errors);
+  const fieldProps = { draft, set: edit, errors, text, field, panel, circuits };
   const fields = (
     <View style={styles.fields}>
       {kind === 'thermal' && <ThermalFields {...fieldProps} ambientC={ambientC} />}
       {kind === 'torque' && <TorqueFields {...fieldProps} />}
       {kind === 'trip' && <TripFields {...fieldProps} bands={bands} />}
-      <TextField label="Notes" value={draft.notes} onChangeText={edit('notes')} multiline error={errors.notes} testID="field-reading-notes" />
+      <TextField label="Notes" {...text('notes')} multiline testID="field-reading-notes" />
     </View>
   );
 
@@ -109,9 +110,7 @@ export function ReadingForm(props: ReadingFormProps) {
 
   const saveBlock = (
     <View style={styles.actions}>
-      {Object.keys(errors).length > 0 && (
-        <Text tone="danger" accessibilityRole="alert">Some fields need attention (marked ✕ above).</Text>
-      )}
+      <FormProblems errors={errors} />
       {justSaved && !dirty && (
         <Text variant="strong" testID="reading-saved">
           ✓ Saved on this device{kind === 'thermal' ? ': add the thermal and visible images now, or go back.' : '.'}
