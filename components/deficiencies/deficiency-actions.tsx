@@ -16,7 +16,6 @@ import {
   PRIORITIES,
   PRIORITY_LABELS,
   type Deficiency,
-  type DeficiencyFields,
   type DeficiencyPatchBody,
   type Priority,
 } from '@/shared/records';
@@ -46,7 +45,7 @@ export interface DeficiencyActionsProps {
 
 /** Only the fields that differ from the stored row. */
 function changedOnly(d: Deficiency, patch: DeficiencyPatchBody): DeficiencyPatchBody {
-  const was = d as unknown as Record<string, unknown>;
+  const was: Record<string, unknown> = d;
   return Object.fromEntries(Object.entries(patch).filter(([k, v]) => was[k] !== v)) as DeficiencyPatchBody;
 }
 
@@ -83,8 +82,8 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
     if (parsed.success) {
       const check = checkDeficiencyChange({
         role,
-        before: d as unknown as DeficiencyFields,
-        after: { ...d, ...parsed.data } as unknown as DeficiencyFields,
+        before: d,
+        after: { ...d, ...parsed.data },
         changed: Object.keys(parsed.data),
         repairPhotos,
       });
