@@ -12,20 +12,22 @@ import { EMPTY_REPLICA, recordsOf, type BuildingCopy, type RecordCopy, type Repl
 import { assessReading, terminationReadingOf, type Assessment } from '@/shared/assess';
 import { isOutstanding } from '@/shared/deficiency';
 import { nuisanceTripFindings, type TerminationReading } from '@/shared/calc';
-import type {
-  Band,
-  BandCreateBody,
-  Deficiency,
-  DeficiencyCreateBody,
-  DeficiencyPatchBody,
-  InspectionCreateBody,
-  InspectionPatchBody,
-  PhotoCreateBody,
-  Reading,
-  ReadingCreateBody,
-  ReadingPatchBody,
-  TripCreateBody,
-  TripPatchBody,
+import {
+  bandResponse,
+  bandsResponse,
+  type Band,
+  type BandCreateBody,
+  type Deficiency,
+  type DeficiencyCreateBody,
+  type DeficiencyPatchBody,
+  type InspectionCreateBody,
+  type InspectionPatchBody,
+  type PhotoCreateBody,
+  type Reading,
+  type ReadingCreateBody,
+  type ReadingPatchBody,
+  type TripCreateBody,
+  type TripPatchBody,
 } from '@/shared/records';
 import type { Membership, MeResponse } from '@/shared/schemas';
 import type { Mutation, RecordList } from '@/shared/sync';
@@ -52,7 +54,7 @@ function copyWith(r: Replica, name: RecordList, id: string): BuildingCopy | null
 export function useBands() {
   return useQuery({
     queryKey: keys.bands,
-    queryFn: async () => (await api.get<{ bands: Band[] }>('/bands')).bands,
+    queryFn: async () => (await api.get('/bands', bandsResponse)).bands,
     staleTime: 10 * 60_000,
     networkMode: 'offlineFirst',
   });
@@ -64,7 +66,7 @@ export function useSaveBand() {
   return useMutation({
     // fail at once with no signal (the default would wait for it): the form keeps the draft
     networkMode: 'always',
-    mutationFn: (body: BandCreateBody & { id?: string }) => api.post<{ band: Band }>('/bands', body),
+    mutationFn: (body: BandCreateBody & { id?: string }) => api.post('/bands', body, bandResponse),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: keys.bands }),
   });
 }
