@@ -12,7 +12,7 @@ import {
 } from '@/shared/records';
 import { fieldErrors, type Panel } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { chipStyles, ChoiceField, Field, FormProblems, TextField } from '@/components/ui/fields';
+import { chipStyles, ChoiceField, Field, FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { lightLoadWarning, needsLoad } from './inspection-format';
 import { Text } from '@/components/ui/text';
@@ -158,26 +158,22 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
         {...field('panelIds')}
         locked={lockedPanelIds}
       />
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField
-            label="Date"
-            {...text('performedOn')}
-            mono
-            placeholder="YYYY-MM-DD"
-            testID="field-performed-on"
-          />
-        </View>
-        <View style={styles.cell}>
-          <TextField
-            label="Ambient (°C)"
-            {...text('ambientC')}
-            keyboardType="numbers-and-punctuation"
-            mono
-            testID="field-ambient"
-          />
-        </View>
-      </View>
+      <FieldRow>
+        <TextField
+          label="Date"
+          {...text('performedOn')}
+          mono
+          placeholder="YYYY-MM-DD"
+          testID="field-performed-on"
+        />
+        <TextField
+          label="Ambient (°C)"
+          {...text('ambientC')}
+          keyboardType="numbers-and-punctuation"
+          mono
+          testID="field-ambient"
+        />
+      </FieldRow>
       <TextField
         label="Load at the time (% of normal)"
         {...text('loadPct')}
@@ -198,8 +194,6 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
 const styles = StyleSheet.create({
   centred: { alignItems: 'center' },
   form: { gap: space.lg },
-  row: { flexDirection: 'row', gap: space.md },
-  cell: { flex: 1 },
   warning: {
     gap: space.xs,
     padding: space.md,

@@ -8,7 +8,7 @@ import { StyleSheet, TextInput, View } from 'react-native';
 import { bandCreateBody, type BandCreateBody } from '@/shared/records';
 import { fieldErrors } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { FormProblems, TextField } from '@/components/ui/fields';
+import { FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -126,26 +126,22 @@ export function BandForm({
             hint="The maker’s curve number and edition, so anyone can check the points against it."
             testID="band-source"
           />
-          <View style={styles.row}>
-            <View style={styles.cell}>
-              <TextField
-                label="Instantaneous pickup (× rating)"
-                {...text('instantaneousMultiple')}
-                keyboardType="decimal-pad"
-                mono
-                testID="band-instantaneous"
-              />
-            </View>
-            <View style={styles.cell}>
-              <TextField
-                label="Tolerance (± %)"
-                {...text('instantaneousTolerancePct')}
-                keyboardType="decimal-pad"
-                mono
-                testID="band-tolerance"
-              />
-            </View>
-          </View>
+          <FieldRow alignEnd>
+            <TextField
+              label="Instantaneous pickup (× rating)"
+              {...text('instantaneousMultiple')}
+              keyboardType="decimal-pad"
+              mono
+              testID="band-instantaneous"
+            />
+            <TextField
+              label="Tolerance (± %)"
+              {...text('instantaneousTolerancePct')}
+              keyboardType="decimal-pad"
+              mono
+              testID="band-tolerance"
+            />
+          </FieldRow>
         </View>
         <View style={styles.column}>
           <Text variant="label" tone="soft">POINTS OF THE BAND (READ OFF THE CURVE)</Text>
@@ -225,8 +221,6 @@ const styles = StyleSheet.create({
   columns: { flexDirection: 'row', flexWrap: 'wrap', gap: space.xl },
   column: { flexGrow: 1, flexBasis: 340, gap: space.lg },
   // inputs line up at the bottom even when one label wraps
-  row: { flexDirection: 'row', gap: space.md, alignItems: 'flex-end' },
-  cell: { flex: 1 },
   tableHead: { flexDirection: 'row', gap: space.sm, marginBottom: -space.sm },
   point: { gap: space.xs },
   pointRow: { flexDirection: 'row', gap: space.sm, alignItems: 'center' },

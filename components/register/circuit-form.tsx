@@ -17,7 +17,7 @@ import { circuitCreateBody, fieldErrors, type Circuit, type CircuitFields, type 
 import { BandPicker } from './band-picker';
 import { Button } from '@/components/ui/button';
 import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-format';
-import { ChoiceField, FormProblems, ReadOnlyField, TextField, ToggleField } from '@/components/ui/fields';
+import { ChoiceField, FieldRow, FormProblems, ReadOnlyField, TextField, ToggleField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -204,30 +204,26 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
         choices={(['in-use', 'spare', 'space'] as const).map((value) => ({ value, label: STATUS_LABELS[value] }))}
         {...field('status')}
       />
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField
-            label="Position"
-            {...text('position')}
-            keyboardType="number-pad"
-            mono
-            hint={phases ? `phase ${phases}` : undefined}
-            testID="field-position"
-          />
-        </View>
-        <View style={styles.cell}>
-          <TextField
-            label="Trip rating (A)"
-            value={isSpace ? '' : draft.ratingA}
-            onChangeText={set('ratingA')}
-            keyboardType="number-pad"
-            mono
-            editable={!isSpace}
-            error={errors.ratingA}
-            testID="field-rating"
-          />
-        </View>
-      </View>
+      <FieldRow>
+        <TextField
+          label="Position"
+          {...text('position')}
+          keyboardType="number-pad"
+          mono
+          hint={phases ? `phase ${phases}` : undefined}
+          testID="field-position"
+        />
+        <TextField
+          label="Trip rating (A)"
+          value={isSpace ? '' : draft.ratingA}
+          onChangeText={set('ratingA')}
+          keyboardType="number-pad"
+          mono
+          editable={!isSpace}
+          error={errors.ratingA}
+          testID="field-rating"
+        />
+      </FieldRow>
       <ChoiceField
         label="Poles"
         choices={[1, 2, 3].filter((p) => threePhase || p < 3).map((p) => ({ value: p as 1 | 2 | 3, label: `${p}P` }))}
@@ -245,26 +241,22 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
             choices={LOAD_KINDS.map((value) => ({ value, label: LOAD_KIND_LABELS[value] }))}
             {...field('loadKind')}
           />
-          <View style={styles.row}>
-            <View style={styles.cell}>
-              <TextField
-                label="Connected load (VA)"
-                {...text('loadVA')}
-                keyboardType="number-pad"
-                mono
-                testID="field-load"
-              />
-            </View>
-            <View style={styles.cell}>
-              <TextField
-                label="One-way length (ft)"
-                {...text('lengthFt')}
-                keyboardType="decimal-pad"
-                mono
-                testID="field-length"
-              />
-            </View>
-          </View>
+          <FieldRow>
+            <TextField
+              label="Connected load (VA)"
+              {...text('loadVA')}
+              keyboardType="number-pad"
+              mono
+              testID="field-load"
+            />
+            <TextField
+              label="One-way length (ft)"
+              {...text('lengthFt')}
+              keyboardType="decimal-pad"
+              mono
+              testID="field-length"
+            />
+          </FieldRow>
           <ToggleField label="Continuous load (3 h or more)" {...field('continuous')} />
           <ChoiceField
             label="Conductor size"
@@ -365,8 +357,6 @@ function previewWarnings(circuit: CircuitFields, panel: Panel): CircuitWarning[]
 
 const styles = StyleSheet.create({
   form: { gap: space.lg },
-  row: { flexDirection: 'row', gap: space.md },
-  cell: { flex: 1 },
   warnings: {
     gap: space.xs,
     padding: space.md,

@@ -3,7 +3,7 @@ import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type Insula
 import { panelLayout } from '@/shared/calc';
 import { fieldErrors, panelCreateBody, type Circuit, type Panel, type PanelPatchBody } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
-import { ChoiceField, FormProblems, TextField } from '@/components/ui/fields';
+import { ChoiceField, FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
@@ -66,14 +66,10 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
 
   return (
     <View style={styles.form}>
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField label="Tag" {...text('tag')} mono testID="field-tag" />
-        </View>
-        <View style={styles.cell}>
-          <TextField label="Spaces" {...text('spaces')} keyboardType="number-pad" mono testID="field-spaces" />
-        </View>
-      </View>
+      <FieldRow>
+        <TextField label="Tag" {...text('tag')} mono testID="field-tag" />
+        <TextField label="Spaces" {...text('spaces')} keyboardType="number-pad" mono testID="field-spaces" />
+      </FieldRow>
       <TextField label="Location" {...text('location')} />
       <ChoiceField
         label="Kind"
@@ -85,20 +81,16 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
         choices={SYSTEMS.map((value) => ({ value: value as PanelSystem, label: SYSTEM_INFO[value].label }))}
         {...field('system')}
       />
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField label="Bus rating (A)" {...text('busRatingA')} keyboardType="number-pad" mono testID="field-bus" />
-        </View>
-        <View style={styles.cell}>
-          <TextField
-            label="Main breaker (A)"
-            {...text('mainRatingA')}
-            hint="Leave blank for main lugs only"
-            keyboardType="number-pad"
-            mono
-          />
-        </View>
-      </View>
+      <FieldRow>
+        <TextField label="Bus rating (A)" {...text('busRatingA')} keyboardType="number-pad" mono testID="field-bus" />
+        <TextField
+          label="Main breaker (A)"
+          {...text('mainRatingA')}
+          hint="Leave blank for main lugs only"
+          keyboardType="number-pad"
+          mono
+        />
+      </FieldRow>
       <ChoiceField
         label="Terminations listed and marked for"
         choices={[
@@ -108,22 +100,14 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
         {...field('terminationTempC')}
         hint="From the panel’s label. Not recorded: NEC 110.14(C)(1) takes 60 °C for circuits of 100 A or less or 14–1 AWG."
       />
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField label="Short-circuit rating (kA)" {...text('shortCircuitKA')} keyboardType="decimal-pad" mono />
-        </View>
-        <View style={styles.cell}>
-          <TextField label="Installed on" {...text('installedOn')} placeholder="YYYY-MM-DD" mono />
-        </View>
-      </View>
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField label="Maker" {...text('maker')} />
-        </View>
-        <View style={styles.cell}>
-          <TextField label="Model" {...text('model')} />
-        </View>
-      </View>
+      <FieldRow>
+        <TextField label="Short-circuit rating (kA)" {...text('shortCircuitKA')} keyboardType="decimal-pad" mono />
+        <TextField label="Installed on" {...text('installedOn')} placeholder="YYYY-MM-DD" mono />
+      </FieldRow>
+      <FieldRow>
+        <TextField label="Maker" {...text('maker')} />
+        <TextField label="Model" {...text('model')} />
+      </FieldRow>
       <ChoiceField
         label="Equipment condition (NFPA 70B)"
         hint="1 like new · 2 deviations or earlier repairs · 3 missed maintenance or urgent findings"
@@ -138,6 +122,4 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
 
 const styles = StyleSheet.create({
   form: { gap: space.lg },
-  row: { flexDirection: 'row', gap: space.md },
-  cell: { flex: 1 },
 });

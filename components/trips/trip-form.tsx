@@ -9,7 +9,7 @@ import { tripCreateBody, type TripCreateBody } from '@/shared/records';
 import { fieldErrors, type Circuit } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { isRealDate } from '@/components/deficiencies/deficiency-format';
-import { FormProblems, TextField } from '@/components/ui/fields';
+import { FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
 import { useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
@@ -71,14 +71,10 @@ export function TripForm({ circuit, onSubmit }: { circuit: Circuit; onSubmit: (b
   const loadHint = loadAgainstRating(numberOrNull(draft.loadA), circuit.ratingA);
   return (
     <View style={styles.form}>
-      <View style={styles.row}>
-        <View style={styles.cell}>
-          <TextField label="Date" {...text('date')} placeholder="YYYY-MM-DD" mono testID="field-trip-date" />
-        </View>
-        <View style={styles.cell}>
-          <TextField label="Time" {...text('time')} placeholder="HH:MM" mono testID="field-trip-time" />
-        </View>
-      </View>
+      <FieldRow>
+        <TextField label="Date" {...text('date')} placeholder="YYYY-MM-DD" mono testID="field-trip-date" />
+        <TextField label="Time" {...text('time')} placeholder="HH:MM" mono testID="field-trip-time" />
+      </FieldRow>
       <TextField
         label="Load at the time (A, optional)"
         {...text('loadA')}
@@ -102,6 +98,4 @@ export function TripForm({ circuit, onSubmit }: { circuit: Circuit; onSubmit: (b
 
 const styles = StyleSheet.create({
   form: { gap: space.lg },
-  row: { flexDirection: 'row', gap: space.md },
-  cell: { flex: 1 },
 });

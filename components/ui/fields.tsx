@@ -1,3 +1,4 @@
+import { Children, isValidElement } from 'react';
 import { Pressable, StyleSheet, TextInput, View, type TextInputProps } from 'react-native';
 import { Text } from './text';
 import { colours, fonts, MIN_TOUCH, radii, space } from './theme';
@@ -19,6 +20,25 @@ export function Field({ label, error, hint, children }: { label: string; error?:
       ) : hint ? (
         <Text variant="small" tone="faint">{hint}</Text>
       ) : null}
+    </View>
+  );
+}
+
+/**
+ * Fields side by side, sharing the width (two short numbers on one line of a phone). `wrap`: the
+ * cells keep a readable width and go under each other on a narrow screen; `alignEnd`: fields whose
+ * labels differ in height line up on their boxes.
+ */
+export function FieldRow({ children, wrap, alignEnd }: { children: React.ReactNode; wrap?: boolean; alignEnd?: boolean }) {
+  return (
+    <View style={[styles.fieldRow, wrap && styles.fieldRowWrap, alignEnd && styles.fieldRowEnd]}>
+      {Children.toArray(children).map((child, i) => (
+        // toArray's keys follow the place in the source, so a field that appears before another
+        // (a conditional one) does not remount it
+        <View key={isValidElement(child) && child.key !== null ? child.key : i} style={[styles.fieldCell, wrap && styles.fieldCellWrap]}>
+          {child}
+        </View>
+      ))}
     </View>
   );
 }
@@ -149,6 +169,11 @@ export const chipStyles = StyleSheet.create({
 
 const styles = StyleSheet.create({
   field: { gap: space.xs },
+  fieldRow: { flexDirection: 'row', gap: space.md },
+  fieldRowWrap: { flexWrap: 'wrap' },
+  fieldRowEnd: { alignItems: 'flex-end' },
+  fieldCell: { flex: 1 },
+  fieldCellWrap: { minWidth: 140 },
   input: {
     minHeight: MIN_TOUCH,
     borderWidth: 1,

@@ -14,7 +14,7 @@ import {
 } from '@/shared/records';
 import type { Circuit, Panel } from '@/shared/schemas';
 import { breakerLabel } from '@/components/register/circuit-format';
-import { ChoiceField, TextField } from '@/components/ui/fields';
+import { ChoiceField, FieldRow, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
 import { fallbackIn, type ReadingDraft } from './reading-draft';
 import { ReadingCircuitPicker } from './reading-circuit-picker';
@@ -32,13 +32,6 @@ interface KindFieldsProps {
   errors: Record<string, string>;
   panel: Panel;
   circuits: Circuit[];
-}
-
-function Row({ children }: { children: React.ReactNode }) {
-  return <View style={styles.row}>{children}</View>;
-}
-function Cell({ children }: { children: React.ReactNode }) {
-  return <View style={styles.cell}>{children}</View>;
 }
 
 // ---------- thermal ----------
@@ -69,26 +62,22 @@ export function ThermalFields({ draft, set, errors, text, field, panel, circuits
         noneLabel="No circuit: bus, main lugs or the enclosure"
         testID="field-circuit"
       />
-      <Row>
-        <Cell>
-          <TextField
-            label="Temperature (°C)"
-            {...text('temperatureC')}
-            keyboardType="decimal-pad"
-            mono
-            testID="field-temperature"
-          />
-        </Cell>
-        <Cell>
-          <TextField
-            label="Reference (°C)"
-            {...text('referenceC')}
-            keyboardType="decimal-pad"
-            mono
-            testID="field-reference"
-          />
-        </Cell>
-      </Row>
+      <FieldRow wrap>
+        <TextField
+          label="Temperature (°C)"
+          {...text('temperatureC')}
+          keyboardType="decimal-pad"
+          mono
+          testID="field-temperature"
+        />
+        <TextField
+          label="Reference (°C)"
+          {...text('referenceC')}
+          keyboardType="decimal-pad"
+          mono
+          testID="field-reference"
+        />
+      </FieldRow>
       <ChoiceField
         label="Reference is"
         choices={[
@@ -100,26 +89,22 @@ export function ThermalFields({ draft, set, errors, text, field, panel, circuits
         error={errors.referenceBasis}
         hint="NETA judges a rise over a similar component under similar load more strictly than a rise over the air."
       />
-      <Row>
-        <Cell>
-          <TextField
-            label="Measured load (A)"
-            {...text('loadA')}
-            keyboardType="decimal-pad"
-            mono
-            testID="field-load-a"
-          />
-        </Cell>
-        <Cell>
-          <TextField
-            label="Reference load (A)"
-            {...text('referenceLoadA')}
-            keyboardType="decimal-pad"
-            mono
-            testID="field-reference-load-a"
-          />
-        </Cell>
-      </Row>
+      <FieldRow wrap>
+        <TextField
+          label="Measured load (A)"
+          {...text('loadA')}
+          keyboardType="decimal-pad"
+          mono
+          testID="field-load-a"
+        />
+        <TextField
+          label="Reference load (A)"
+          {...text('referenceLoadA')}
+          keyboardType="decimal-pad"
+          mono
+          testID="field-reference-load-a"
+        />
+      </FieldRow>
       {!errors.loadA && !errors.referenceLoadA && (
         <Text variant="small" tone="faint">
           Optional, both or neither: a rise taken between 40 % and 100 % of the reference load is raised to it; one
@@ -264,28 +249,24 @@ export function TorqueFields({ draft, set, errors, text, field, circuits }: Kind
         {...field('asFound')}
         hint="Held: it did not move at the specified torque. Turned: it moved before reaching it."
       />
-      <Row>
+      <FieldRow wrap>
         {draft.asFound === 'turned' && (
-          <Cell>
-            <TextField
-              label={`Turned at (${unit})`}
-              {...text('asFoundValue')}
-              keyboardType="decimal-pad"
-              mono
-              testID="field-as-found"
-            />
-          </Cell>
-        )}
-        <Cell>
           <TextField
-            label={`As left (${unit})`}
-            {...text('asLeft')}
+            label={`Turned at (${unit})`}
+            {...text('asFoundValue')}
             keyboardType="decimal-pad"
             mono
-            testID="field-as-left"
+            testID="field-as-found"
           />
-        </Cell>
-      </Row>
+        )}
+        <TextField
+          label={`As left (${unit})`}
+          {...text('asLeft')}
+          keyboardType="decimal-pad"
+          mono
+          testID="field-as-left"
+        />
+      </FieldRow>
     </>
   );
 }
@@ -359,8 +340,6 @@ export function TripFields({ draft, text, field, circuits, bands }: KindFieldsPr
 }
 
 const styles = StyleSheet.create({
-  row: { flexDirection: 'row', gap: space.md, flexWrap: 'wrap' },
-  cell: { flex: 1, minWidth: 140 },
   fallback: {
     gap: space.xs,
     padding: space.md,
