@@ -378,7 +378,7 @@ export function putPhoto(photoId: string, part: UploadPart, sha256: string, onPr
     const form = new FormData();
     if ('blob' in part) form.append('photo', part.blob, part.name);
     // React Native's FormData takes a file by URI
-    else form.append('photo', { uri: part.uri, name: part.name, type: part.type } as unknown as Blob);
+    else form.append('photo', { uri: part.uri, name: part.name, type: part.type });
     watch();
     xhr.send(form);
   });
