@@ -1,5 +1,4 @@
 import { Link } from 'expo-router';
-import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
@@ -7,18 +6,17 @@ import { TextField } from '@/components/ui/fields';
 import { Screen } from '@/components/ui/screen';
 import { Text } from '@/components/ui/text';
 import { space } from '@/components/ui/theme';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
 import { useSignIn } from '@/hooks/use-session';
 import { ApiError, describeError } from '@/lib/api';
 import { fieldErrors, signInBody } from '@/shared/schemas';
 
 export default function SignIn() {
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const { draft, set, errors, setErrors } = useFormDraft(() => ({ email: '', password: '' }));
   const signIn = useSignIn();
 
   const submit = () => {
-    const parsed = signInBody.safeParse({ email: email.trim(), password });
+    const parsed = signInBody.safeParse({ ...draft, email: draft.email.trim() });
     if (!parsed.success) {
       setErrors(fieldErrors(parsed.error));
       return;
@@ -28,6 +26,7 @@ export default function SignIn() {
   };
   const serverError = signIn.error;
   const serverFields = serverError instanceof ApiError ? serverError.fields : undefined;
+  const { text } = bindForm(draft, set, { ...serverFields, ...errors });
 
   return (
     <Screen>
@@ -38,22 +37,18 @@ export default function SignIn() {
       <Card style={styles.card}>
         <TextField
           label="E-mail"
-          value={email}
-          onChangeText={(v) => { setEmail(v); setErrors(({ email: _e, ...rest }) => rest); }}
+          {...text('email')}
           autoCapitalize="none"
           autoComplete="email"
           keyboardType="email-address"
-          error={errors.email ?? serverFields?.email}
           testID="sign-in-email"
         />
         <TextField
           label="Password"
-          value={password}
-          onChangeText={(v) => { setPassword(v); setErrors(({ password: _p, ...rest }) => rest); }}
+          {...text('password')}
           secureTextEntry
           autoComplete="current-password"
           onSubmitEditing={submit}
-          error={errors.password ?? serverFields?.password}
           testID="sign-in-password"
         />
         {serverError && !serverFields && (

@@ -3,7 +3,6 @@
  * password, and ask for a reset link (signed out).
  */
 import { Link, Redirect, useRouter } from 'expo-router';
-import { useState } from 'react';
 import { StyleSheet } from 'react-native';
 import { useAcceptInvitation, useForgotPassword, useInvitation, usePasswordReset, useResetPassword } from '@/hooks/use-access';
 import { useSession } from '@/hooks/use-session';
@@ -15,12 +14,15 @@ import {
   PASSWORD_MIN,
   resetPasswordBody,
   ROLE_LABELS,
+  type AcceptInvitationRequest,
   type InvitationView,
 } from '@/shared/access';
+import type { z } from 'zod';
 import { fieldErrors } from '@/shared/schemas';
 import { AccessCard, Notice } from './access-parts';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/fields';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
 import { LoadingState } from '@/components/ui/states';
 import { Text } from '@/components/ui/text';
 import { space } from '@/components/ui/theme';
@@ -38,13 +40,6 @@ function LinkProblem({ error, what }: { error: unknown; what: 'invitation' | 're
       </Link>
     </AccessCard>
   );
-}
-
-function clear(key: string) {
-  return (errors: Record<string, string>) => {
-    const { [key]: _gone, ...rest } = errors;
-    return rest;
-  };
 }
 
 /**
@@ -99,18 +94,26 @@ function JoinAsSignedIn({ token, inv }: JoinProps) {
   );
 }
 
-function JoinWithPassword({ token, inv }: JoinProps) {
+/**
+ * An invitation's form: checked like the server, then accepted (which signs in); the server's
+ * field errors show under the fields until the user edits them.
+ */
+function useAcceptForm<T extends object>(token: string, initial: T, schema: z.ZodType<AcceptInvitationRequest>) {
   const accept = useAcceptInvitation(token);
   const router = useRouter();
-  const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const { draft, set, errors, setErrors } = useFormDraft(() => initial);
   const serverFields = accept.error instanceof ApiError ? accept.error.fields : undefined;
   const submit = () => {
-    const parsed = existingAccountAcceptBody.safeParse({ password });
+    const parsed = schema.safeParse(draft);
     if (!parsed.success) return setErrors(fieldErrors(parsed.error));
     setErrors({});
     accept.mutate(parsed.data, { onSuccess: () => router.replace('/') });
   };
+  return { accept, serverFields, submit, ...bindForm(draft, set, { ...serverFields, ...errors }) };
+}
+
+function JoinWithPassword({ token, inv }: JoinProps) {
+  const { accept, serverFields, submit, text } = useAcceptForm(token, { password: '' }, existingAccountAcceptBody);
   return (
     <AccessCard testID="accept-invitation">
       <Text variant="heading">Join {inv.organisationName}</Text>
@@ -120,12 +123,10 @@ function JoinWithPassword({ token, inv }: JoinProps) {
       </Text>
       <TextField
         label="Your password"
-        value={password}
-        onChangeText={(v) => { setPassword(v); setErrors({}); }}
+        {...text('password')}
         secureTextEntry
         autoComplete="current-password"
         onSubmitEditing={submit}
-        error={errors.password ?? serverFields?.password}
         testID="invite-existing-password"
       />
       {accept.error && !serverFields && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
@@ -138,18 +139,7 @@ function JoinWithPassword({ token, inv }: JoinProps) {
 }
 
 function JoinAsNewAccount({ token, inv }: JoinProps) {
-  const accept = useAcceptInvitation(token);
-  const router = useRouter();
-  const [name, setName] = useState('');
-  const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const serverFields = accept.error instanceof ApiError ? accept.error.fields : undefined;
-  const submit = () => {
-    const parsed = acceptInvitationBody.safeParse({ name, password });
-    if (!parsed.success) return setErrors(fieldErrors(parsed.error));
-    setErrors({});
-    accept.mutate(parsed.data, { onSuccess: () => router.replace('/') });
-  };
+  const { accept, serverFields, submit, text } = useAcceptForm(token, { name: '', password: '' }, acceptInvitationBody);
   return (
     <AccessCard testID="accept-invitation">
       <Text variant="heading">Join {inv.organisationName}</Text>
@@ -158,21 +148,17 @@ function JoinAsNewAccount({ token, inv }: JoinProps) {
       </Text>
       <TextField
         label="Your name"
-        value={name}
-        onChangeText={(v) => { setName(v); setErrors(clear('name')); }}
+        {...text('name')}
         autoComplete="name"
-        error={errors.name ?? serverFields?.name}
         testID="invite-name"
       />
       <TextField
         label="Password"
-        value={password}
-        onChangeText={(v) => { setPassword(v); setErrors(clear('password')); }}
+        {...text('password')}
         secureTextEntry
         autoComplete="new-password"
         hint={`At least ${PASSWORD_MIN} characters.`}
         onSubmitEditing={submit}
-        error={errors.password ?? serverFields?.password}
         testID="invite-password"
       />
       {accept.error && !serverFields && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
@@ -184,13 +170,13 @@ function JoinAsNewAccount({ token, inv }: JoinProps) {
 export function ResetPassword({ token }: { token: string }) {
   const reset = usePasswordReset(token);
   const save = useResetPassword(token);
-  const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const { draft, set, errors, setErrors } = useFormDraft(() => ({ password: '' }));
   if (reset.isPending) return <LoadingState what="the link" />;
   if (reset.isError) return <LinkProblem error={reset.error} what="reset" />;
   const serverFields = save.error instanceof ApiError ? save.error.fields : undefined;
+  const { text } = bindForm(draft, set, { ...serverFields, ...errors });
   const submit = () => {
-    const parsed = resetPasswordBody.safeParse({ password });
+    const parsed = resetPasswordBody.safeParse(draft);
     if (!parsed.success) return setErrors(fieldErrors(parsed.error));
     setErrors({});
     save.mutate(parsed.data.password);
@@ -201,13 +187,11 @@ export function ResetPassword({ token }: { token: string }) {
       <Text tone="soft">For {reset.data.email}. Every device signed in with the old password is signed out.</Text>
       <TextField
         label="New password"
-        value={password}
-        onChangeText={(v) => { setPassword(v); setErrors({}); }}
+        {...text('password')}
         secureTextEntry
         autoComplete="new-password"
         hint={`At least ${PASSWORD_MIN} characters.`}
         onSubmitEditing={submit}
-        error={errors.password ?? serverFields?.password}
         testID="reset-new-password"
       />
       {save.error && !serverFields && <Notice tone="danger" text={describeError(save.error)} />}
@@ -218,10 +202,9 @@ export function ResetPassword({ token }: { token: string }) {
 
 export function ForgotPassword() {
   const forgot = useForgotPassword();
-  const [email, setEmail] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const { draft, setErrors, text } = useFormDraft(() => ({ email: '' }));
   const submit = () => {
-    const parsed = forgotPasswordBody.safeParse({ email: email.trim() });
+    const parsed = forgotPasswordBody.safeParse({ email: draft.email.trim() });
     if (!parsed.success) return setErrors(fieldErrors(parsed.error));
     setErrors({});
     forgot.mutate(parsed.data.email);
@@ -232,13 +215,11 @@ export function ForgotPassword() {
       <Text tone="soft">Enter the e-mail you sign in with. We send a link to choose a new password; it works once, for one hour.</Text>
       <TextField
         label="E-mail"
-        value={email}
-        onChangeText={(v) => { setEmail(v); setErrors({}); }}
+        {...text('email')}
         autoCapitalize="none"
         autoComplete="email"
         keyboardType="email-address"
         onSubmitEditing={submit}
-        error={errors.email}
         testID="forgot-email"
       />
       {forgot.isSuccess && <Notice text={forgot.data.message} testID="forgot-result" />}
