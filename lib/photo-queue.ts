@@ -19,6 +19,7 @@
  * dependencies, which hooks/use-photos.ts wires to the query client and the platform's store.
  */
 import { apiUrl } from './api-base';
+import type { NativeFile } from './form-data-native';
 import { markUnreachable } from './online';
 
 /** Resize on the device before queueing: the long edge, and the JPEG quality. */
@@ -377,8 +378,11 @@ export function putPhoto(photoId: string, part: UploadPart, sha256: string, onPr
     xhr.onabort = () => settle({ status: 0, body: null });
     const form = new FormData();
     if ('blob' in part) form.append('photo', part.blob, part.name);
-    // React Native's FormData takes a file by URI
-    else form.append('photo', { uri: part.uri, name: part.name, type: part.type });
+    else {
+      // React Native's FormData takes a file by URI
+      const file: NativeFile = { uri: part.uri, name: part.name, type: part.type };
+      form.append('photo', file);
+    }
     watch();
     xhr.send(form);
   });
