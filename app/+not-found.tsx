@@ -1,6 +1,6 @@
 import { Link } from 'expo-router';
-import { EmptyState } from '@/components/states';
-import { Text } from '@/components/text';
+import { EmptyState } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
 
 export default function NotFound() {
   return (

@@ -1,6 +1,6 @@
-import { ForgotPassword } from '@/components/access-links';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
+import { ForgotPassword } from '@/components/access/access-links';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
 
 export default function ForgotPasswordScreen() {
   return (

@@ -1,23 +1,22 @@
 import { Link } from 'expo-router';
-import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/button';
-import { TextField } from '@/components/fields';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
-import { colours, radii, space } from '@/components/theme';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { TextField } from '@/components/ui/fields';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
+import { space } from '@/components/ui/theme';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
 import { useSignIn } from '@/hooks/use-session';
 import { ApiError, describeError } from '@/lib/api';
 import { fieldErrors, signInBody } from '@/shared/schemas';
 
 export default function SignIn() {
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const { draft, set, errors, setErrors } = useFormDraft(() => ({ email: '', password: '' }));
   const signIn = useSignIn();
 
   const submit = () => {
-    const parsed = signInBody.safeParse({ email: email.trim(), password });
+    const parsed = signInBody.safeParse({ ...draft, email: draft.email.trim() });
     if (!parsed.success) {
       setErrors(fieldErrors(parsed.error));
       return;
@@ -27,6 +26,7 @@ export default function SignIn() {
   };
   const serverError = signIn.error;
   const serverFields = serverError instanceof ApiError ? serverError.fields : undefined;
+  const { text } = bindForm(draft, set, { ...serverFields, ...errors });
 
   return (
     <Screen>
@@ -34,25 +34,21 @@ export default function SignIn() {
         <Text variant="title">Ampwright</Text>
         <Text tone="soft">Panel schedules and condition records, on the job and offline.</Text>
       </View>
-      <View style={styles.card}>
+      <Card style={styles.card}>
         <TextField
           label="E-mail"
-          value={email}
-          onChangeText={(v) => { setEmail(v); setErrors(({ email: _e, ...rest }) => rest); }}
+          {...text('email')}
           autoCapitalize="none"
           autoComplete="email"
           keyboardType="email-address"
-          error={errors.email ?? serverFields?.email}
           testID="sign-in-email"
         />
         <TextField
           label="Password"
-          value={password}
-          onChangeText={(v) => { setPassword(v); setErrors(({ password: _p, ...rest }) => rest); }}
+          {...text('password')}
           secureTextEntry
           autoComplete="current-password"
           onSubmitEditing={submit}
-          error={errors.password ?? serverFields?.password}
           testID="sign-in-password"
         />
         {serverError && !serverFields && (
@@ -64,7 +60,7 @@ export default function SignIn() {
         <Link href="/forgot-password" style={styles.forgot} testID="forgot-password-link">
           <Text tone="copper">Forgot your password?</Text>
         </Link>
-      </View>
+      </Card>
       <Text variant="small" tone="faint">
         Demo: admin@, electrician@, inspector@ or owner@ampwright.test with the password ampwright-demo.
       </Text>
@@ -77,10 +73,5 @@ const styles = StyleSheet.create({
   forgot: { minHeight: 44, paddingVertical: space.md },
   card: {
     gap: space.lg,
-    padding: space.lg,
-    backgroundColor: colours.card,
-    borderRadius: radii.lg,
-    borderWidth: 1,
-    borderColor: colours.rule,
   },
 });

@@ -5,15 +5,18 @@
 import { useContext } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api';
-import type {
-  AcceptInvitationRequest,
-  InvitationView,
-  InviteBody,
-  InviteResponse,
-  PeopleResponse,
+import {
+  forgotPasswordAnswer,
+  invitationView,
+  inviteResponse,
+  passwordResetView,
+  peopleResponse,
+  sendReportAnswer,
+  type AcceptInvitationRequest,
+  type InviteBody,
 } from '@/shared/access';
 import type { Role } from '@/shared/domain';
-import type { MeResponse } from '@/shared/schemas';
+import { meResponse } from '@/shared/schemas';
 import { AccountContext } from './use-session';
 import { keys } from './keys';
 
@@ -26,7 +29,7 @@ const accessKeys = {
 export function usePeople(organisationId: string | undefined) {
   return useQuery({
     queryKey: accessKeys.people(organisationId ?? ''),
-    queryFn: () => api.get<PeopleResponse>(`/organisations/${organisationId}/people`),
+    queryFn: () => api.get(`/organisations/${organisationId}/people`, peopleResponse),
     enabled: !!organisationId,
   });
 }
@@ -45,7 +48,7 @@ function usePeopleChange<V, R = unknown>(organisationId: string, fn: (v: V) => P
 
 export function useInvite(organisationId: string) {
   return usePeopleChange(organisationId, (body: InviteBody) =>
-    api.post<InviteResponse>(`/organisations/${organisationId}/invitations`, body),
+    api.post(`/organisations/${organisationId}/invitations`, body, inviteResponse),
   );
 }
 
@@ -77,7 +80,7 @@ function useSignedInBy<V>(fn: (v: V) => Promise<unknown>) {
   return useMutation({
     mutationFn: async (v: V) => {
       await fn(v);
-      return api.get<MeResponse>('/me');
+      return api.get('/me', meResponse);
     },
     onSuccess: (me) => {
       if (account.userId === me.user.id) {
@@ -92,7 +95,7 @@ function useSignedInBy<V>(fn: (v: V) => Promise<unknown>) {
 export function useInvitation(token: string) {
   return useQuery({
     queryKey: accessKeys.invitation(token),
-    queryFn: () => api.get<InvitationView>(`/invitations/${token}`),
+    queryFn: () => api.get(`/invitations/${token}`, invitationView),
     retry: false,
   });
 }
@@ -103,14 +106,14 @@ export function useAcceptInvitation(token: string) {
 
 export function useForgotPassword() {
   return useMutation({
-    mutationFn: (email: string) => api.post<{ message: string }>('/auth/forgot-password', { email }),
+    mutationFn: (email: string) => api.post('/auth/forgot-password', { email }, forgotPasswordAnswer),
   });
 }
 
 export function usePasswordReset(token: string) {
   return useQuery({
     queryKey: accessKeys.reset(token),
-    queryFn: () => api.get<{ email: string; expiresAt: string }>(`/password-resets/${token}`),
+    queryFn: () => api.get(`/password-resets/${token}`, passwordResetView),
     retry: false,
   });
 }
@@ -122,6 +125,6 @@ export function useResetPassword(token: string) {
 /** "Send report to owner" for an inspection (admin or inspector). */
 export function useSendReport(inspectionId: string) {
   return useMutation({
-    mutationFn: (to?: string) => api.post<{ sentTo: string[] }>(`/inspections/${inspectionId}/send-report`, to ? { to } : {}),
+    mutationFn: (to?: string) => api.post(`/inspections/${inspectionId}/send-report`, to ? { to } : {}, sendReportAnswer),
   });
 }

@@ -12,23 +12,26 @@ import { EMPTY_REPLICA, recordsOf, type BuildingCopy, type RecordCopy, type Repl
 import { assessReading, terminationReadingOf, type Assessment } from '@/shared/assess';
 import { isOutstanding } from '@/shared/deficiency';
 import { nuisanceTripFindings, type TerminationReading } from '@/shared/calc';
-import type {
-  Band,
-  BandCreateBody,
-  Deficiency,
-  DeficiencyCreateBody,
-  DeficiencyPatchBody,
-  InspectionCreateBody,
-  InspectionPatchBody,
-  PhotoCreateBody,
-  Reading,
-  ReadingCreateBody,
-  ReadingPatchBody,
-  TripCreateBody,
-  TripPatchBody,
+import {
+  bandResponse,
+  bandsResponse,
+  type Band,
+  type BandCreateBody,
+  type Deficiency,
+  type DeficiencyCreateBody,
+  type DeficiencyPatchBody,
+  type InspectionCreateBody,
+  type InspectionPatchBody,
+  type PhotoCreateBody,
+  type Reading,
+  type ReadingCreateBody,
+  type ReadingPatchBody,
+  type TripCreateBody,
+  type TripPatchBody,
 } from '@/shared/records';
 import type { Membership, MeResponse } from '@/shared/schemas';
 import type { Mutation, RecordList } from '@/shared/sync';
+import { viewOf, type BuildingView } from './building-view';
 import { keys } from './keys';
 import { useEnqueue } from './use-outbox';
 
@@ -51,7 +54,7 @@ function copyWith(r: Replica, name: RecordList, id: string): BuildingCopy | null
 export function useBands() {
   return useQuery({
     queryKey: keys.bands,
-    queryFn: async () => (await api.get<{ bands: Band[] }>('/bands')).bands,
+    queryFn: async () => (await api.get('/bands', bandsResponse)).bands,
     staleTime: 10 * 60_000,
     networkMode: 'offlineFirst',
   });
@@ -63,7 +66,7 @@ export function useSaveBand() {
   return useMutation({
     // fail at once with no signal (the default would wait for it): the form keeps the draft
     networkMode: 'always',
-    mutationFn: (body: BandCreateBody & { id?: string }) => api.post<{ band: Band }>('/bands', body),
+    mutationFn: (body: BandCreateBody & { id?: string }) => api.post('/bands', body, bandResponse),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: keys.bands }),
   });
 }
@@ -85,10 +88,10 @@ export interface AssessedReading {
 }
 
 /** Judge a reading against what the device holds (its circuit, panel and band). */
-export function assessOnDevice(copy: BuildingCopy, reading: Reading, bands: readonly Band[] | undefined): Assessment {
-  const circuit = reading.circuitId ? copy.circuits[reading.circuitId] : null;
+export function assessOnDevice(view: BuildingView, reading: Reading, bands: readonly Band[] | undefined): Assessment {
+  const circuit = reading.circuitId ? view.circuit(reading.circuitId) : null;
   const bandId = reading.bandId ?? circuit?.bandId ?? null;
-  const context = { circuit, panel: copy.panels[reading.panelId] };
+  const context = { circuit, panel: view.panel(reading.panelId) };
   try {
     return assessReading(reading, { ...context, band: bandId ? bands?.find((b) => b.id === bandId) : null });
   } catch {
@@ -122,10 +125,10 @@ export function useInspection(inspectionId: string) {
         const readings = list(copy, 'readings')
           .filter((x) => x.inspectionId === inspectionId)
           .sort((a, b) => a.id.localeCompare(b.id))
-          .map((reading) => ({ reading, assessment: assessOnDevice(copy, reading, bands) }));
+          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands) }));
         const deficiencies = list(copy, 'deficiencies').filter((d) => d.inspectionId === inspectionId);
         const panels = inspection.panelIds.map((id) => copy.panels[id]).filter(Boolean);
-        return { inspection, readings, deficiencies, panels, copy };
+        return { inspection, readings, deficiencies, panels, view: viewOf(copy) };
       },
       [inspectionId, bands],
     ),
@@ -136,7 +139,7 @@ export function useInspection(inspectionId: string) {
 
 export interface DeficiencyRow {
   deficiency: Deficiency;
-  copy: BuildingCopy;
+  view: BuildingView;
   /** photos of the deficiency on the device */
   photoCount: number;
 }
@@ -150,7 +153,7 @@ export function useAllDeficiencies() {
           const photos = list(copy, 'photos');
           return list(copy, 'deficiencies').map((deficiency) => ({
             deficiency,
-            copy,
+            view: viewOf(copy),
             photoCount: photos.filter((p) => p.parentId === deficiency.id).length,
           }));
         }),
@@ -183,7 +186,7 @@ export function useDeficiency(deficiencyId: string) {
           entries,
           photos,
           reading,
-          copy,
+          view: viewOf(copy),
           panel: deficiency.panelId ? (copy.panels[deficiency.panelId] ?? null) : null,
           circuit: deficiency.circuitId ? (copy.circuits[deficiency.circuitId] ?? null) : null,
         };
@@ -213,7 +216,7 @@ export function useCircuitRecord(circuitId: string) {
         const readings = list(copy, 'readings')
           .filter((x) => x.circuitId === circuitId)
           .sort((a, b) => b.id.localeCompare(a.id))
-          .map((reading) => ({ reading, assessment: assessOnDevice(copy, reading, bands) }));
+          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands) }));
         // the judged rise: a test-pulse reading at its raw difference, a too-light one not at all
         const terminations: TerminationReading[] = readings.flatMap(({ reading, assessment }) => {
           const t = terminationReadingOf(reading, assessment);
@@ -227,7 +230,7 @@ export function useCircuitRecord(circuitId: string) {
             })
           : null;
         const deficiencies = list(copy, 'deficiencies').filter((d) => d.circuitId === circuitId);
-        return { circuit, trips, readings, findings, deficiencies, copy };
+        return { circuit, trips, readings, findings, deficiencies, view: viewOf(copy) };
       },
       [circuitId, bands],
     ),

@@ -7,6 +7,7 @@ import { useCallback } from 'react';
 import { describeMutation, type Replica, type SyncLog } from '@/lib/replica';
 import type { Mutation } from '@/shared/sync';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
+import { viewOf } from './building-view';
 import { keys } from './keys';
 
 function useReplica<T>(select: (r: Replica) => T) {
@@ -73,7 +74,7 @@ export function useSyncReview() {
     useCallback(
       (r: Replica) => ({
         conflicts: Object.values(r.buildings)
-          .flatMap((c) => Object.values(c.conflicts).map((conflict) => ({ conflict, copy: c })))
+          .flatMap((c) => Object.values(c.conflicts).map((conflict) => ({ conflict, view: viewOf(c) })))
           .filter(({ conflict }) => conflict.resolution === null)
           .sort((a, b) => b.conflict.updatedAt.localeCompare(a.conflict.updatedAt)),
         lastSyncAt: r.lastSyncAt,

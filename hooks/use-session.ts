@@ -1,7 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { createContext, useContext } from 'react';
 import { api, isUnauthorised } from '@/lib/api';
-import type { MeResponse, SignInBody } from '@/shared/schemas';
+import { meResponse, type MeResponse, type SignInBody } from '@/shared/schemas';
 import { keys } from './keys';
 
 /** Which user's cache is mounted, and how to change it (app/_layout.tsx provides it). */
@@ -27,7 +27,7 @@ export function useSession() {
     queryKey: keys.me,
     queryFn: async (): Promise<MeResponse | null> => {
       try {
-        return await api.get<MeResponse>('/me');
+        return await api.get('/me', meResponse);
       } catch (error) {
         if (isUnauthorised(error)) return null;
         throw error;
@@ -43,7 +43,7 @@ export function useSignIn() {
   const queryClient = useQueryClient();
   const account = useContext(AccountContext);
   return useMutation({
-    mutationFn: (body: SignInBody) => api.post<MeResponse>('/auth/sign-in', body),
+    mutationFn: (body: SignInBody) => api.post('/auth/sign-in', body, meResponse),
     onSuccess: (me) => {
       // the same user signing in again (an expired session) keeps their queue and copy
       if (account.userId === me.user.id) queryClient.setQueryData(keys.me, me);

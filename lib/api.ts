@@ -1,11 +1,13 @@
 /**
  * The one HTTP client. Turns HTTP and network failures into typed errors; `describeError()` maps
- * them to text a user can act on. Screens never call fetch: hooks call this.
+ * them to text a user can act on. Screens never call fetch: hooks call this. An answer that is
+ * read is read through its shared zod schema (the server answers with the same ones), so a
+ * malformed answer stops here, named field by field, instead of reaching the device's copy.
  */
-import type { ApiErrorBody } from '@/shared/schemas';
+import type { z } from 'zod';
+import { fieldErrors, type ApiErrorBody } from '@/shared/schemas';
+import { apiUrl } from './api-base';
 import { markUnreachable } from './online';
-
-const BASE_URL = process.env.EXPO_PUBLIC_API_URL ?? '';
 
 export class ApiError extends Error {
   constructor(
@@ -26,10 +28,10 @@ export class NetworkError extends Error {
   }
 }
 
-async function request<T>(method: string, path: string, body?: unknown): Promise<T> {
+async function request(method: string, path: string, body?: unknown): Promise<unknown> {
   let response: Response;
   try {
-    response = await fetch(`${BASE_URL}/api${path}`, {
+    response = await fetch(apiUrl(path), {
       method,
       credentials: 'include',
       headers: body === undefined ? undefined : { 'content-type': 'application/json' },
@@ -55,14 +57,36 @@ async function request<T>(method: string, path: string, body?: unknown): Promise
       error?.fields,
     );
   }
-  return json as T;
+  return json;
 }
 
+/** What the answer is, by its schema; an answer of another shape is an ApiError `bad_response`. */
+async function read<S extends z.ZodType>(answer: Promise<unknown>, schema: S): Promise<z.output<S>> {
+  const parsed = schema.safeParse(await answer);
+  if (parsed.success) return parsed.data;
+  throw new ApiError(
+    200,
+    'bad_response',
+    'The server’s answer was not in the form this app expects. Reload the app; if it keeps happening, tell your administrator.',
+    fieldErrors(parsed.error),
+  );
+}
+
+function post<S extends z.ZodType>(path: string, body: unknown, schema: S): Promise<z.output<S>>;
+function post(path: string, body?: unknown): Promise<void>;
+function post(path: string, body: unknown = {}, schema?: z.ZodType): Promise<unknown> {
+  return schema ? read(request('POST', path, body), schema) : request('POST', path, body).then(() => undefined);
+}
+
+/**
+ * `get` always reads its answer, so it takes the schema; a write takes one when its answer is
+ * read (a write whose answer is ignored returns nothing to read).
+ */
 export const api = {
-  get: <T>(path: string) => request<T>('GET', path),
-  post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
-  patch: <T>(path: string, body: unknown) => request<T>('PATCH', path, body),
-  del: <T>(path: string) => request<T>('DELETE', path),
+  get: <S extends z.ZodType>(path: string, schema: S) => read(request('GET', path), schema),
+  post,
+  patch: (path: string, body: unknown) => request('PATCH', path, body).then(() => undefined),
+  del: (path: string) => request('DELETE', path).then(() => undefined),
 };
 
 export function isUnauthorised(error: unknown): boolean {

@@ -5,15 +5,15 @@
  * outbox keeps its changes queued.
  */
 import { onlineManager } from '@tanstack/react-query';
+import { apiUrl } from './api-base';
 
 const PROBE_EVERY_MS = 4000;
-const BASE_URL = process.env.EXPO_PUBLIC_API_URL ?? '';
 let probeTimer: ReturnType<typeof setTimeout> | null = null;
 
 async function probe(): Promise<void> {
   probeTimer = null;
   try {
-    const res = await fetch(`${BASE_URL}/api/health`, { cache: 'no-store' });
+    const res = await fetch(apiUrl('/health'), { cache: 'no-store' });
     if (res.ok) {
       onlineManager.setOnline(true);
       return;

@@ -18,9 +18,9 @@
  * The decisions are pure functions (unit-tested); `PhotoUploader` runs them against its
  * dependencies, which hooks/use-photos.ts wires to the query client and the platform's store.
  */
+import { apiUrl } from './api-base';
+import type { NativeFile } from './form-data-native';
 import { markUnreachable } from './online';
-
-const BASE_URL = process.env.EXPO_PUBLIC_API_URL ?? '';
 
 /** Resize on the device before queueing: the long edge, and the JPEG quality. */
 export const PHOTO_LONG_EDGE = 2000;
@@ -44,7 +44,7 @@ export const SYNCED_SETTLE_MS = 5_000;
 export const STALL_MS = 60_000;
 
 export const photoUrl = (photoId: string, variant: 'original' | 'thumb') =>
-  `${BASE_URL}/api/photos/${encodeURIComponent(photoId)}${variant === 'thumb' ? '/thumb' : ''}`;
+  apiUrl(`/photos/${encodeURIComponent(photoId)}${variant === 'thumb' ? '/thumb' : ''}`);
 
 // ---------- what is kept on the device ----------
 
@@ -378,8 +378,11 @@ export function putPhoto(photoId: string, part: UploadPart, sha256: string, onPr
     xhr.onabort = () => settle({ status: 0, body: null });
     const form = new FormData();
     if ('blob' in part) form.append('photo', part.blob, part.name);
-    // React Native's FormData takes a file by URI
-    else form.append('photo', { uri: part.uri, name: part.name, type: part.type } as unknown as Blob);
+    else {
+      // React Native's FormData takes a file by URI
+      const file: NativeFile = { uri: part.uri, name: part.name, type: part.type };
+      form.append('photo', file);
+    }
     watch();
     xhr.send(form);
   });

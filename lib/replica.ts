@@ -5,7 +5,7 @@
  */
 import type { Deficiency, DeficiencyEntry, Inspection, Photo, Reading, TripEvent } from '@/shared/records';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
-import { RECORD_LISTS, type BuildingPage, type Conflict, type Mutation, type MutationResult, type PullResponse, type RecordList } from '@/shared/sync';
+import { RESOLUTIONS, type BuildingPage, type Conflict, type Mutation, type MutationResult, type PullResponse, type RecordList } from '@/shared/sync';
 
 /** The condition record of a building, by list (the same names as a pull page's). */
 export interface RecordCopy {
@@ -76,30 +76,38 @@ export interface SyncLog {
 export const EMPTY_SYNC_LOG: SyncLog = { refused: [], synced: [] };
 const SYNCED_KEPT = 30;
 
-const byId = <T extends { id: string }>(rows: T[]) => Object.fromEntries(rows.map((r) => [r.id, r]));
+const byId = <T extends { id: string }>(rows: readonly T[]) => Object.fromEntries(rows.map((r) => [r.id, r]));
+
+/** Rows after a page: the upserts laid over what was there, tombstoned and deleted rows gone (the live view holds live rows only). */
+function mergeRows<T extends { id: string; deletedAt: string | null }>(
+  base: Record<string, T> | undefined,
+  upserts: readonly T[] | undefined,
+  tombstones: readonly string[] | undefined,
+): Record<string, T> {
+  const rows = { ...(base ?? {}), ...byId(upserts ?? []) };
+  for (const id of tombstones ?? []) delete rows[id];
+  for (const [id, row] of Object.entries(rows)) if (row.deletedAt) delete rows[id];
+  return rows;
+}
 
 function applyPage(copy: BuildingCopy | undefined, page: BuildingPage): BuildingCopy | undefined {
   const base = page.reset || !copy ? undefined : copy;
   const building = page.building ?? base?.building;
   if (!building || building.deletedAt) return undefined;
-  const panels = { ...(base?.panels ?? {}), ...byId(page.upserts.panels) };
-  const circuits = { ...(base?.circuits ?? {}), ...byId(page.upserts.circuits) };
-  const conflicts = { ...(base?.conflicts ?? {}), ...byId(page.upserts.conflicts) };
-  for (const id of page.tombstones.panels) delete panels[id];
-  for (const id of page.tombstones.circuits) delete circuits[id];
-  // upserts may carry tombstoned rows too: the live view holds live rows only
-  for (const [id, p] of Object.entries(panels)) if (p.deletedAt) delete panels[id];
-  for (const [id, c] of Object.entries(circuits)) if (c.deletedAt || !panels[c.panelId]) delete circuits[id];
-  const records = {} as RecordCopy;
-  for (const list of RECORD_LISTS) {
-    const rows: Record<string, { deletedAt: string | null }> = {
-      ...(base ? recordsOf(base, list) : {}),
-      ...byId((page.upserts[list] ?? []) as { id: string; deletedAt: string | null }[]),
-    };
-    for (const id of page.tombstones[list] ?? []) delete rows[id];
-    for (const [id, row] of Object.entries(rows)) if (row.deletedAt) delete rows[id];
-    (records as unknown as Record<string, unknown>)[list] = rows;
-  }
+  const { upserts: up, tombstones: gone } = page;
+  const panels = mergeRows(base?.panels, up.panels, gone.panels);
+  const circuits = mergeRows(base?.circuits, up.circuits, gone.circuits);
+  // a circuit whose panel went (deleted, or not on the device) goes with it
+  for (const [id, c] of Object.entries(circuits)) if (!panels[c.panelId]) delete circuits[id];
+  const conflicts = { ...(base?.conflicts ?? {}), ...byId(up.conflicts) };
+  const records: RecordCopy = {
+    inspections: mergeRows(base?.inspections, up.inspections, gone.inspections),
+    readings: mergeRows(base?.readings, up.readings, gone.readings),
+    deficiencies: mergeRows(base?.deficiencies, up.deficiencies, gone.deficiencies),
+    entries: mergeRows(base?.entries, up.entries, gone.entries),
+    trips: mergeRows(base?.trips, up.trips, gone.trips),
+    photos: mergeRows(base?.photos, up.photos, gone.photos),
+  };
   return { building, panels, circuits, conflicts, ...records, cursor: page.toVersion, ...(page.resume && { resume: page.resume }) };
 }
 
@@ -126,187 +134,28 @@ export function resumesOf(replica: Replica): Record<string, string> {
   );
 }
 
-function withCopy(replica: Replica, buildingId: string, edit: (copy: BuildingCopy) => BuildingCopy): Replica {
-  const copy = replica.buildings[buildingId];
-  if (!copy) return replica;
-  return { ...replica, buildings: { ...replica.buildings, [buildingId]: edit(copy) } };
-}
-
-const localColumns = (m: Mutation, userId: string | null) => ({
-  updatedAt: m.hlc,
-  updatedBy: userId,
-  deletedAt: null,
-});
-
 /**
  * Show a queued change on the device before the server has it (the optimistic half of the
- * outbox). Pure and idempotent: applying the same mutation twice gives the same copy.
+ * outbox). Pure and idempotent: applying the same mutation twice gives the same copy. What each
+ * kind does is its entry in KINDS (lib/replica-kinds.ts); a verb a kind does not list (a restore,
+ * a building create) waits for the pull.
  */
 export function applyMutation(replica: Replica, m: Mutation, userId: string | null): Replica {
-  const f = m.fields as Record<string, unknown>;
-  switch (m.name) {
-    case 'circuit.patch':
-      return withCopy(replica, m.buildingId, (c) => {
-        const old = c.circuits[m.entityId];
-        if (!old) return c;
-        return { ...c, circuits: { ...c.circuits, [m.entityId]: { ...old, ...f, ...localColumns(m, userId) } as Circuit } };
-      });
-    case 'circuit.create':
-      return withCopy(replica, m.buildingId, (c) => ({
-        ...c,
-        circuits: {
-          ...c.circuits,
-          [m.entityId]: {
-            ...(f as object),
-            id: m.entityId,
-            panelId: m.parentId!,
-            version: 0,
-            ...localColumns(m, userId),
-          } as Circuit,
-        },
-      }));
-    case 'circuit.delete':
-      return withCopy(replica, m.buildingId, (c) => {
-        const { [m.entityId]: _gone, ...circuits } = c.circuits;
-        return { ...c, circuits };
-      });
-    case 'panel.patch':
-      return withCopy(replica, m.buildingId, (c) => {
-        const old = c.panels[m.entityId];
-        if (!old) return c;
-        return { ...c, panels: { ...c.panels, [m.entityId]: { ...old, ...f, ...localColumns(m, userId) } as Panel } };
-      });
-    case 'panel.delete':
-      return withCopy(replica, m.buildingId, (c) => {
-        const { [m.entityId]: _gone, ...panels } = c.panels;
-        const circuits = Object.fromEntries(Object.entries(c.circuits).filter(([, x]) => x.panelId !== m.entityId));
-        return { ...c, panels, circuits };
-      });
-    case 'building.patch':
-      return withCopy(replica, m.buildingId, (c) => ({ ...c, building: { ...c.building, ...f, ...localColumns(m, userId) } as Building }));
-    case 'conflict.resolve':
-      return withCopy(replica, m.buildingId, (c) => {
-        const old = c.conflicts[m.entityId];
-        if (!old) return c;
-        return { ...c, conflicts: { ...c.conflicts, [m.entityId]: { ...old, resolution: f.resolution as Conflict['resolution'] } } };
-      });
-    default:
-      return applyRecordMutation(replica, m, userId);
-  }
-}
-
-/** Which list a record mutation's kind lives in. */
-const LIST_OF: Record<string, RecordList> = {
-  inspection: 'inspections',
-  reading: 'readings',
-  deficiency: 'deficiencies',
-  trip: 'trips',
-  photo: 'photos',
-};
-
-/** What the server adds to a new row, as far as the device can tell before it answers. */
-function createdColumns(kind: string, m: Mutation, me: MeLike): Record<string, unknown> {
-  switch (kind) {
-    case 'inspection':
-      return { inspectorId: me.userId, inspectorName: me.name, signedAt: null, signedBy: null, signedByName: null };
-    case 'deficiency':
-      return { raisedBy: me.userId, raisedByName: me.name };
-    case 'photo':
-      return { uploaded: false };
-    default:
-      return {};
-  }
-}
-
-interface MeLike {
-  userId: string | null;
-  name: string;
-}
-
-function withList<L extends RecordList>(
-  replica: Replica,
-  buildingId: string,
-  list: L,
-  edit: (rows: RecordCopy[L], copy: BuildingCopy) => RecordCopy[L],
-): Replica {
-  return withCopy(replica, buildingId, (c) => ({ ...c, [list]: edit(recordsOf(c, list), c) }));
-}
-
-/** Creates, patches and deletes of the condition record, and the inspection's sign-off. */
-function applyRecordMutation(replica: Replica, m: Mutation, userId: string | null): Replica {
-  const f = m.fields as Record<string, unknown>;
+  const copy = replica.buildings[m.buildingId];
+  const { kind, verb } = partsOf(m);
+  const apply = KINDS[kind]?.verbs[verb];
+  if (!copy || !apply) return replica;
   // the server fills in names; until it answers, a row made here shows its author as "you"
-  const me = { userId, name: '' };
-  if (m.name === 'comment.create') {
-    return withList(replica, m.buildingId, 'entries', (rows) => ({
-      ...rows,
-      [m.entityId]: {
-        id: m.entityId,
-        buildingId: m.buildingId,
-        deficiencyId: f.deficiencyId as string,
-        kind: 'comment',
-        text: f.text as string,
-        changes: {},
-        userId,
-        userName: me.name,
-        at: hlcWallIso(m.hlc),
-        version: 0,
-        ...localColumns(m, userId),
-      },
-    }));
-  }
-  if (m.name === 'inspection.sign') {
-    return withList(replica, m.buildingId, 'inspections', (rows) => {
-      const old = rows[m.entityId];
-      if (!old || old.signedAt) return rows;
-      const signed = { ...old, signedAt: hlcWallIso(m.hlc), signedBy: userId, signedByName: me.name };
-      return { ...rows, [m.entityId]: signed };
-    });
-  }
-  const [kind, verb] = m.name.split('.');
-  const list = LIST_OF[kind];
-  if (!list) return replica;
-  return withList(replica, m.buildingId, list, (rows) => {
-    const all = rows as Record<string, object>;
-    if (verb === 'create') {
-      // laid again after a pull that already brought the server's row: the server's stays
-      if ((all[m.entityId] as { version?: number } | undefined)?.version) return rows;
-      const row = { ...f, ...createdColumns(kind, m, me), id: m.entityId, buildingId: m.buildingId, version: 0, ...localColumns(m, userId) };
-      return { ...all, [m.entityId]: row } as RecordCopy[typeof list];
-    }
-    const old = all[m.entityId];
-    if (!old) return rows;
-    if (verb === 'patch') return { ...all, [m.entityId]: { ...old, ...f, ...localColumns(m, userId) } } as RecordCopy[typeof list];
-    if (verb === 'delete') {
-      const { [m.entityId]: _gone, ...rest } = all;
-      return rest as RecordCopy[typeof list];
-    }
-    return rows;
-  });
-}
-
-/** The wall time of an HLC stamp as ISO text (the stamp starts with it). */
-function hlcWallIso(hlc: string): string {
-  return hlc.slice(0, 24);
+  return { ...replica, buildings: { ...replica.buildings, [m.buildingId]: apply(copy, m, { userId, name: '' }) } };
 }
 
 /** "LA · 13 · description" — how a queued change reads on the Sync tab. */
 export function describeMutation(replica: Replica, m: Mutation): string {
   const copy = replica.buildings[m.buildingId];
+  const { kind, verb } = partsOf(m);
   const fields = Object.keys(m.fields ?? {});
-  const verb = m.name.split('.')[1];
   const what = fields.length && verb === 'patch' ? `: ${fields.join(', ')}` : '';
-  if (m.name.startsWith('circuit.')) {
-    const circuit = copy?.circuits[m.entityId];
-    const panel = circuit ? copy?.panels[circuit.panelId] : m.parentId ? copy?.panels[m.parentId] : undefined;
-    const position = circuit?.position ?? (m.fields as { position?: number }).position;
-    return `${panel?.tag ?? 'Panel'} · ${position ?? '?'} ${verb}${what}`;
-  }
-  if (m.name.startsWith('panel.')) return `Panel ${copy?.panels[m.entityId]?.tag ?? ''} ${verb}${what}`.trim();
-  if (m.name === 'conflict.resolve') return `Review decision (${String((m.fields as { resolution?: string }).resolution)})`;
-  const record = copy ? describeRecord(copy, m, verb, what) : null;
-  if (record) return record;
-  return `${copy?.building.name ?? 'Building'} ${verb}${what}`;
+  return KINDS[kind]?.describe(copy, m, verb, what) ?? `${copy?.building.name ?? 'Building'} ${verb}${what}`;
 }
 
 /** Record what the server said about a pushed change; `label` from describeMutation. */
@@ -323,24 +172,184 @@ export function dismissRefused(log: SyncLog, mutationId: string): SyncLog {
   return { ...log, refused: log.refused.filter((r) => r.mutation.id !== mutationId) };
 }
 
-const RECORD_NOUNS: Record<string, string> = {
-  inspection: 'Inspection',
-  reading: 'Reading',
-  deficiency: 'Deficiency',
-  comment: 'Comment',
-  trip: 'Recorded trip',
-  photo: 'Photo',
-};
+// ---------- the kinds: one table, what a queued change of each does to the copy ----------
 
-function describeRecord(copy: BuildingCopy, m: Mutation, verb: string, what: string): string | null {
-  const kind = m.name.split('.')[0];
-  const noun = RECORD_NOUNS[kind];
-  if (!noun) return null;
-  const f = m.fields as Record<string, unknown>;
-  if (kind === 'deficiency') {
-    const title = (f.title as string | undefined) ?? recordsOf(copy, 'deficiencies')[m.entityId]?.title;
-    return `${noun} ${verb}${title ? ` · ${title}` : ''}${verb === 'patch' ? what : ''}`;
-  }
-  if (kind === 'reading') return `${noun} ${verb}${f.kind ? ` · ${String(f.kind)}` : ''}${verb === 'patch' ? what : ''}`;
-  return `${noun} ${verb}${verb === 'patch' ? what : ''}`;
+interface Me {
+  userId: string | null;
+  name: string;
 }
+
+/** `deficiency.patch` → deficiency, patch */
+function partsOf(m: Mutation): { kind: string; verb: string } {
+  const [kind, verb = ''] = m.name.split('.');
+  return { kind, verb };
+}
+
+/** The changed fields as a plain record, whatever the mutation's declared type. */
+const fieldsOf = (m: Mutation): Record<string, unknown> => ({ ...m.fields });
+
+/** The wall time of an HLC stamp as ISO text (the stamp starts with it). */
+const hlcWallIso = (hlc: string): string => hlc.slice(0, 24);
+
+const localColumns = (m: Mutation, me: Me) => ({ updatedAt: m.hlc, updatedBy: me.userId, deletedAt: null });
+
+/** Where a kind's rows sit in a building's copy. */
+interface Rows<R> {
+  get(copy: BuildingCopy): Record<string, R>;
+  put(copy: BuildingCopy, rows: Record<string, R>): BuildingCopy;
+}
+
+type Apply = (copy: BuildingCopy, m: Mutation, me: Me) => BuildingCopy;
+
+interface KindSpec {
+  /** the verbs the device shows at once, by name */
+  verbs: Partial<Record<string, Apply>>;
+  /** how a queued change of this kind reads on the Sync tab */
+  describe(copy: BuildingCopy | undefined, m: Mutation, verb: string, what: string): string;
+}
+
+interface KindDef<R extends { id: string }> {
+  rows: Rows<R>;
+  /**
+   * What a create shows before the server answers: its parent and the columns the server fills
+   * in (as far as the device can tell). Absent: the kind is not created on the device.
+   */
+  created?: (m: Mutation, me: Me) => Record<string, unknown>;
+  /** patches show at once */
+  patch?: boolean;
+  /** deletes show at once; `cascade` takes what goes with the row */
+  delete?: boolean;
+  cascade?: (copy: BuildingCopy, id: string) => BuildingCopy;
+  /** verbs of this kind alone: the row after it; the same row when it does not apply */
+  own?: Record<string, (old: R, m: Mutation, me: Me) => R>;
+  describe: KindSpec['describe'];
+}
+
+/** One kind's entry: the generic create, patch and delete over its rows, plus its own verbs. */
+function kind<R extends { id: string; version?: number }>(def: KindDef<R>): KindSpec {
+  const { rows } = def;
+  const edit = (copy: BuildingCopy, id: string, next: (old: R) => R): BuildingCopy => {
+    const all = rows.get(copy);
+    const old = all[id];
+    if (!old) return copy;
+    const row = next(old);
+    return row === old ? copy : rows.put(copy, { ...all, [id]: row });
+  };
+  const verbs: Partial<Record<string, Apply>> = {};
+  const { created } = def;
+  if (created) {
+    verbs.create = (copy, m, me) => {
+      const all = rows.get(copy);
+      // laid again after a pull that already brought the server's row: the server's stays
+      if (all[m.entityId]?.version) return copy;
+      // a row made on the device from the change's fields; the pull replaces it with the server's
+      const made: Record<string, unknown> = { ...fieldsOf(m), ...created(m, me), id: m.entityId, version: 0, ...localColumns(m, me) };
+      const row = made as R;
+      return rows.put(copy, { ...all, [m.entityId]: row });
+    };
+  }
+  if (def.patch) verbs.patch = (copy, m, me) => edit(copy, m.entityId, (old) => ({ ...old, ...fieldsOf(m), ...localColumns(m, me) }));
+  if (def.delete) {
+    verbs.delete = (copy, m) => {
+      const { [m.entityId]: gone, ...rest } = rows.get(copy);
+      if (!gone) return copy;
+      const next = rows.put(copy, rest);
+      return def.cascade ? def.cascade(next, m.entityId) : next;
+    };
+  }
+  for (const [verb, change] of Object.entries(def.own ?? {})) {
+    verbs[verb] = (copy, m, me) => edit(copy, m.entityId, (old) => change(old, m, me));
+  }
+  return { verbs, describe: def.describe };
+}
+
+/** "Deficiency patch · Hot lug: status" — a record's noun, verb and what names it. */
+const recordWords =
+  (noun: string, name?: (copy: BuildingCopy | undefined, m: Mutation) => string | undefined): KindSpec['describe'] =>
+  (copy, m, verb, what) => {
+    const named = name?.(copy, m);
+    return `${noun} ${verb}${named ? ` · ${named}` : ''}${verb === 'patch' ? what : ''}`;
+  };
+
+const inBuilding = (m: Mutation) => ({ buildingId: m.buildingId });
+
+const KINDS: Record<string, KindSpec> = {
+  building: kind<Building>({
+    // the building's own row, as a one-row table
+    rows: { get: (c) => ({ [c.building.id]: c.building }), put: (c, rows) => ({ ...c, building: rows[c.building.id] ?? c.building }) },
+    patch: true,
+    describe: (copy, _m, verb, what) => `${copy?.building.name ?? 'Building'} ${verb}${what}`,
+  }),
+  panel: kind<Panel>({
+    rows: { get: (c) => c.panels, put: (c, panels) => ({ ...c, panels }) },
+    patch: true,
+    delete: true,
+    cascade: (c, panelId) => ({ ...c, circuits: Object.fromEntries(Object.entries(c.circuits).filter(([, x]) => x.panelId !== panelId)) }),
+    describe: (copy, m, verb, what) => `Panel ${copy?.panels[m.entityId]?.tag ?? ''} ${verb}${what}`.trim(),
+  }),
+  circuit: kind<Circuit>({
+    rows: { get: (c) => c.circuits, put: (c, circuits) => ({ ...c, circuits }) },
+    created: (m) => ({ panelId: m.parentId }),
+    patch: true,
+    delete: true,
+    describe: (copy, m, verb, what) => {
+      const circuit = copy?.circuits[m.entityId];
+      const panel = circuit ? copy?.panels[circuit.panelId] : m.parentId ? copy?.panels[m.parentId] : undefined;
+      const position = circuit?.position ?? fieldsOf(m).position;
+      return `${panel?.tag ?? 'Panel'} · ${String(position ?? '?')} ${verb}${what}`;
+    },
+  }),
+  conflict: kind<Conflict>({
+    rows: { get: (c) => c.conflicts, put: (c, conflicts) => ({ ...c, conflicts }) },
+    own: {
+      resolve: (old, m) => {
+        const resolution = RESOLUTIONS.find((r) => r === fieldsOf(m).resolution);
+        return resolution ? { ...old, resolution } : old;
+      },
+    },
+    describe: (_copy, m) => `Review decision (${String(fieldsOf(m).resolution)})`,
+  }),
+  inspection: kind<Inspection>({
+    rows: { get: (c) => recordsOf(c, 'inspections'), put: (c, inspections) => ({ ...c, inspections }) },
+    created: (m, me) => ({ ...inBuilding(m), inspectorId: me.userId, inspectorName: me.name, signedAt: null, signedBy: null, signedByName: null }),
+    patch: true,
+    delete: true,
+    own: {
+      sign: (old, m, me) => (old.signedAt ? old : { ...old, signedAt: hlcWallIso(m.hlc), signedBy: me.userId, signedByName: me.name }),
+    },
+    describe: recordWords('Inspection'),
+  }),
+  reading: kind<Reading>({
+    rows: { get: (c) => recordsOf(c, 'readings'), put: (c, readings) => ({ ...c, readings }) },
+    created: inBuilding,
+    patch: true,
+    delete: true,
+    describe: recordWords('Reading', (_copy, m) => {
+      const { kind: readingKind } = fieldsOf(m);
+      return readingKind ? String(readingKind) : undefined;
+    }),
+  }),
+  deficiency: kind<Deficiency>({
+    rows: { get: (c) => recordsOf(c, 'deficiencies'), put: (c, deficiencies) => ({ ...c, deficiencies }) },
+    created: (m, me) => ({ ...inBuilding(m), raisedBy: me.userId, raisedByName: me.name }),
+    patch: true,
+    delete: true,
+    describe: recordWords('Deficiency', (copy, m) => {
+      const { title } = fieldsOf(m);
+      return typeof title === 'string' ? title : copy ? recordsOf(copy, 'deficiencies')[m.entityId]?.title : undefined;
+    }),
+  }),
+  comment: kind<DeficiencyEntry>({
+    rows: { get: (c) => recordsOf(c, 'entries'), put: (c, entries) => ({ ...c, entries }) },
+    created: (m, me) => ({ ...inBuilding(m), kind: 'comment', changes: {}, userId: me.userId, userName: me.name, at: hlcWallIso(m.hlc) }),
+    describe: recordWords('Comment'),
+  }),
+  trip: kind<TripEvent>({ rows: { get: (c) => recordsOf(c, 'trips'), put: (c, trips) => ({ ...c, trips }) }, created: inBuilding, patch: true, delete: true, describe: recordWords('Recorded trip') }),
+  photo: kind<Photo>({
+    rows: { get: (c) => recordsOf(c, 'photos'), put: (c, photos) => ({ ...c, photos }) },
+    created: (m) => ({ ...inBuilding(m), uploaded: false }),
+    patch: true,
+    delete: true,
+    describe: recordWords('Photo'),
+  }),
+};

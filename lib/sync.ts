@@ -3,7 +3,7 @@
  * replayed in order) and a pull loop that keeps the device's replica current. See SYNC.md.
  */
 import type { Mutation as QueryMutation, QueryClient } from '@tanstack/react-query';
-import { SCHEMA_VERSION, type Mutation, type MutationResult, type PullResponse, type PushResponse } from '@/shared/sync';
+import { pullResponse, pushResponse, SCHEMA_VERSION, type Mutation, type MutationResult, type PullResponse } from '@/shared/sync';
 import { api, ApiError, describeError, NetworkError } from './api';
 import { deviceId, observe } from './device';
 import { estimateParts, setPullProgress, type BuildingPullProgress, type PagesSoFar } from './pull-progress';
@@ -33,11 +33,11 @@ export function isTransient(error: unknown): boolean {
 }
 
 async function pushOne(mutation: Mutation): Promise<MutationResult> {
-  const response = await api.post<PushResponse>('/sync/push', {
+  const response = await api.post('/sync/push', {
     deviceId: deviceId(),
     schemaVersion: SCHEMA_VERSION,
     mutations: [mutation],
-  });
+  }, pushResponse);
   observe(response.serverHlc);
   return response.results[0];
 }
@@ -65,11 +65,11 @@ async function pullAll(queryClient: QueryClient, userId: string): Promise<Replic
   try {
     for (;;) {
       const request = { cursors: cursorsOf(pulled), resume: resumesOf(pulled) };
-      const response = await api.post<PullResponse>('/sync/pull', {
+      const response = await api.post('/sync/pull', {
         deviceId: deviceId(),
         schemaVersion: SCHEMA_VERSION,
         ...request,
-      });
+      }, pullResponse);
       observe(response.serverHlc);
       pulled = applyPull(pulled, response);
       if (!response.buildings.some((b) => b.hasMore)) break;

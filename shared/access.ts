@@ -65,46 +65,64 @@ export const sendReportBody = z.object({
   to: z.email('enter an e-mail address').max(200).optional(),
 });
 
+// ---------- answers (the client reads them through these schemas) ----------
+
+const role = z.enum(ROLES);
+
 /** What the one-time link's page shows before the form. */
-export interface InvitationView {
-  email: string;
-  organisationName: string;
-  role: Role;
-  expiresAt: string;
+export const invitationView = z.object({
+  email: z.string(),
+  organisationName: z.string(),
+  role,
+  expiresAt: z.string(),
   /** `existing`: the address has an account, which accepts with its own password */
-  account: 'new' | 'existing';
-}
+  account: z.enum(['new', 'existing']),
+});
+export type InvitationView = z.infer<typeof invitationView>;
 
-export interface Person {
-  userId: string;
-  name: string;
-  email: string;
-  role: Role;
+export const personSchema = z.object({
+  userId: z.string(),
+  name: z.string(),
+  email: z.string(),
+  role,
   /** the buildings granted (owners only) */
-  buildingIds: string[];
-}
+  buildingIds: z.array(z.string()),
+});
+export type Person = z.infer<typeof personSchema>;
 
-export interface PendingInvitation {
-  id: string;
-  email: string;
-  role: Role;
-  buildingIds: string[];
-  expiresAt: string;
-  invitedBy: string;
-}
+export const pendingInvitationSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  role,
+  buildingIds: z.array(z.string()),
+  expiresAt: z.string(),
+  invitedBy: z.string(),
+});
+export type PendingInvitation = z.infer<typeof pendingInvitationSchema>;
 
-export interface PeopleResponse {
-  organisationId: string;
-  people: Person[];
-  invitations: PendingInvitation[];
-  buildings: { id: string; name: string }[];
-}
+export const peopleResponse = z.object({
+  organisationId: z.string(),
+  people: z.array(personSchema),
+  invitations: z.array(pendingInvitationSchema),
+  buildings: z.array(z.object({ id: z.string(), name: z.string() })),
+});
+export type PeopleResponse = z.infer<typeof peopleResponse>;
 
-export interface InviteResponse {
+export const inviteResponse = z.object({
   /** an invitation was e-mailed (the same answer whether or not the address has an account) */
-  outcome: 'invited';
-  message: string;
-}
+  outcome: z.literal('invited'),
+  message: z.string(),
+});
+export type InviteResponse = z.infer<typeof inviteResponse>;
+
+/** The answer to "forgot password" (the same whether or not an account has that address). */
+export const forgotPasswordAnswer = z.object({ message: z.string() });
+
+/** What a password-reset link's page shows before the form. */
+export const passwordResetView = z.object({ email: z.string(), expiresAt: z.string() });
+
+/** Who an inspection's report was sent to. */
+export const sendReportAnswer = z.object({ sentTo: z.array(z.string()) });
 
 /** The same answer whether or not an account has that address. */
 export const FORGOT_PASSWORD_ANSWER =

@@ -468,6 +468,8 @@ export const bandSchema = bandFieldsBase.extend({
 });
 export type Band = z.infer<typeof bandSchema>;
 export const bandsResponse = z.object({ bands: z.array(bandSchema) });
+/** The answer to adding a band. */
+export const bandResponse = z.object({ band: bandSchema });
 
 // ---------- organisation settings ----------
 

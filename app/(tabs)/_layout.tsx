@@ -1,8 +1,8 @@
 import { Tabs } from 'expo-router/js-tabs';
 import type { ColorValue } from 'react-native';
-import { headerOptions } from '@/components/header-options';
-import { Text } from '@/components/text';
-import { colours, fonts } from '@/components/theme';
+import { headerOptions } from '@/components/ui/header-options';
+import { Text } from '@/components/ui/text';
+import { colours, fonts } from '@/components/ui/theme';
 
 const icon = (glyph: string) =>
   function TabIcon({ color }: { color: ColorValue }) {

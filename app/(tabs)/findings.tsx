@@ -1,8 +1,8 @@
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { ScrollView, StyleSheet, useWindowDimensions, View } from 'react-native';
-import { Button } from '@/components/button';
-import { DeficiencyDetail } from '@/components/deficiency-detail';
+import { Button } from '@/components/ui/button';
+import { DeficiencyDetail } from '@/components/deficiencies/deficiency-detail';
 import {
   applyFilters,
   DEFAULT_FILTERS,
@@ -13,12 +13,12 @@ import {
   type FindingsView,
   PriorityCounts,
   type FindingFilters,
-} from '@/components/finding-list';
-import { MaintenanceDueAcross } from '@/components/maintenance-due';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
-import { Text } from '@/components/text';
-import { colours, space, WIDE_MIN_WIDTH } from '@/components/theme';
+} from '@/components/deficiencies/finding-list';
+import { MaintenanceDueAcross } from '@/components/register/maintenance-due';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { colours, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 import { useAllDeficiencies } from '@/hooks/use-records';
 import { useBuildings } from '@/hooks/use-register';
 import { todayISO } from '@/shared/deficiency';

@@ -1,14 +1,13 @@
 import { useRouter } from 'expo-router';
-import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/button';
-import { ReadOnlyField } from '@/components/fields';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
-import { colours, radii, space } from '@/components/theme';
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { ReadOnlyField } from '@/components/ui/fields';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
 import { useOutbox } from '@/hooks/use-outbox';
 import { useWaitingPhotos } from '@/hooks/use-photos';
-import { OrganisationSettingsCard } from '@/components/organisation-settings';
+import { OrganisationSettingsCard } from '@/components/access/organisation-settings';
 import { useSession, useSignOut } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
 
@@ -32,13 +31,13 @@ export default function Me() {
   if (!me) return null;
   return (
     <Screen>
-      <View style={styles.card}>
+      <Card>
         <Text variant="heading">{me.user.name}</Text>
         <ReadOnlyField label="E-mail" value={me.user.email} />
         {me.memberships.map((m) => (
           <ReadOnlyField key={m.organisationId} label={m.organisationName} value={m.role} />
         ))}
-      </View>
+      </Card>
       {me.memberships
         .filter((m) => m.role === 'admin')
         .map((m) => (
@@ -53,7 +52,3 @@ export default function Me() {
     </Screen>
   );
 }
-
-const styles = StyleSheet.create({
-  card: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
-});

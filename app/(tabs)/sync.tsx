@@ -1,13 +1,14 @@
 import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/button';
-import { PhotosWaiting } from '@/components/photos';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
-import { colours, radii, space } from '@/components/theme';
-import { stampTime, timeAgo } from '@/components/time-ago';
+import { Button } from '@/components/ui/button';
+import { PhotosWaiting } from '@/components/documents/photos';
+import { Card } from '@/components/ui/card';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
+import { colours, radii, space } from '@/components/ui/theme';
+import { stampTime, timeAgo } from '@/components/ui/time-ago';
+import type { BuildingView } from '@/hooks/building-view';
 import { canRestore, useConflictActions, useDismissRefused, useOnline, useOutbox, useSyncNow } from '@/hooks/use-outbox';
 import { useSyncReview } from '@/hooks/use-register';
-import { recordsOf, type BuildingCopy } from '@/lib/replica';
 import type { Conflict } from '@/shared/sync';
 
 const show = (value: unknown) =>
@@ -27,13 +28,13 @@ export default function Sync() {
 
   return (
     <Screen>
-      <View style={styles.card}>
+      <Card>
         <Text variant="heading" testID="sync-connection">
           {online ? 'Connected' : 'Offline — changes stay on this device'}
         </Text>
         <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data.lastSyncAt)}</Text>
         <Button label={pulling ? 'Syncing…' : 'Sync now'} busy={pulling} onPress={syncNow} testID="sync-now" />
-      </View>
+      </Card>
 
       <Section title={`On this device (${outbox.length})`} testID="outbox">
         {outbox.length === 0 ? (
@@ -55,8 +56,8 @@ export default function Sync() {
 
       <Section title={`Needs review (${needsReview})`} testID="needs-review">
         {needsReview === 0 && <Text tone="soft">No conflicts or refused changes.</Text>}
-        {data.conflicts.map(({ conflict, copy }) => (
-          <ConflictCard key={conflict.id} conflict={conflict} where={whereOf(conflict, copy)} />
+        {data.conflicts.map(({ conflict, view }) => (
+          <ConflictCard key={conflict.id} conflict={conflict} where={whereOf(conflict, view)} />
         ))}
         {data.refused.map((r) => <RefusedCard key={r.mutation.id} label={r.label} reason={r.reason} at={r.at} id={r.mutation.id} />)}
       </Section>
@@ -77,14 +78,14 @@ export default function Sync() {
   );
 }
 
-function whereOf(conflict: Conflict, copy: BuildingCopy) {
+function whereOf(conflict: Conflict, view: BuildingView) {
   if (conflict.entity === 'circuit') {
-    const circuit = copy.circuits[conflict.entityId];
-    return circuit ? `${copy.panels[circuit.panelId]?.tag ?? 'Panel'} · position ${circuit.position}` : 'A deleted circuit';
+    const circuit = view.circuit(conflict.entityId);
+    return circuit ? `${view.panel(circuit.panelId)?.tag ?? 'Panel'} · position ${circuit.position}` : 'A deleted circuit';
   }
-  if (conflict.entity === 'panel') return `Panel ${copy.panels[conflict.entityId]?.tag ?? ''}`;
+  if (conflict.entity === 'panel') return `Panel ${view.panel(conflict.entityId)?.tag ?? ''}`;
   if (conflict.entity === 'building') return 'Building';
-  const deficiency = recordsOf(copy, 'deficiencies')[conflict.entityId];
+  const deficiency = view.deficiency(conflict.entityId);
   if (deficiency) return `Deficiency · ${deficiency.title}`;
   return RECORD_WORDS[conflict.entity] ?? 'Record';
 }
@@ -132,15 +133,14 @@ function RefusedCard({ id, label, reason, at }: { id: string; label: string; rea
 
 function Section({ title, children, testID }: { title: string; children: React.ReactNode; testID: string }) {
   return (
-    <View style={styles.card} testID={testID}>
+    <Card testID={testID}>
       <Text variant="label" tone="soft">{title.toUpperCase()}</Text>
       {children}
-    </View>
+    </Card>
   );
 }
 
 const styles = StyleSheet.create({
-  card: { gap: space.sm, padding: space.lg, backgroundColor: colours.card, borderRadius: radii.lg, borderWidth: 1, borderColor: colours.rule },
   row: { flexDirection: 'row', alignItems: 'center', gap: space.sm, paddingVertical: space.xs, borderBottomWidth: StyleSheet.hairlineWidth, borderBottomColor: colours.rule },
   flex: { flex: 1 },
   review: { gap: space.xs, padding: space.md, borderRadius: radii.md, borderWidth: 1, borderColor: colours.danger, backgroundColor: colours.dangerSoft },

@@ -1,11 +1,11 @@
 import { Stack, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import { BandList } from '@/components/band-list';
-import { Button } from '@/components/button';
-import { Screen } from '@/components/screen';
-import { EmptyState, ErrorState, LoadingState } from '@/components/states';
-import { Text } from '@/components/text';
-import { space } from '@/components/theme';
+import { BandList } from '@/components/register/band-list';
+import { Button } from '@/components/ui/button';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { space } from '@/components/ui/theme';
 import { useBands } from '@/hooks/use-records';
 import { useSession } from '@/hooks/use-session';
 

@@ -1,7 +1,7 @@
 import { Stack, useRouter } from 'expo-router';
 import { useState } from 'react';
-import { BandForm } from '@/components/band-form';
-import { Screen } from '@/components/screen';
+import { BandForm } from '@/components/register/band-form';
+import { Screen } from '@/components/ui/screen';
 import { useSaveBand } from '@/hooks/use-records';
 import { useOnline } from '@/hooks/use-outbox';
 import { ApiError, describeError } from '@/lib/api';

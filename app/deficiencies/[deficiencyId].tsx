@@ -1,6 +1,6 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
-import { DeficiencyDetail } from '@/components/deficiency-detail';
-import { Screen } from '@/components/screen';
+import { DeficiencyDetail } from '@/components/deficiencies/deficiency-detail';
+import { Screen } from '@/components/ui/screen';
 
 export default function DeficiencyScreen() {
   const { deficiencyId } = useLocalSearchParams<{ deficiencyId: string }>();

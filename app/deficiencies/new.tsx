@@ -1,8 +1,8 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
-import { DeficiencyForm } from '@/components/deficiency-form';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
-import { Text } from '@/components/text';
+import { DeficiencyForm } from '@/components/deficiencies/deficiency-form';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
 import { useMembership, useRecordWrites } from '@/hooks/use-records';
 import { useBuilding } from '@/hooks/use-register';
 import { may } from '@/shared/deficiency';

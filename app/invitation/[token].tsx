@@ -1,7 +1,7 @@
 import { useLocalSearchParams } from 'expo-router';
-import { AcceptInvitation } from '@/components/access-links';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
+import { AcceptInvitation } from '@/components/access/access-links';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
 
 export default function InvitationScreen() {
   const { token } = useLocalSearchParams<{ token: string }>();

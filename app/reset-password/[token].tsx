@@ -1,7 +1,7 @@
 import { useLocalSearchParams } from 'expo-router';
-import { ResetPassword } from '@/components/access-links';
-import { Screen } from '@/components/screen';
-import { Text } from '@/components/text';
+import { ResetPassword } from '@/components/access/access-links';
+import { Screen } from '@/components/ui/screen';
+import { Text } from '@/components/ui/text';
 
 export default function ResetPasswordScreen() {
   const { token } = useLocalSearchParams<{ token: string }>();

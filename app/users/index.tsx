@@ -1,9 +1,9 @@
 import { useState } from 'react';
-import { AccessInvite } from '@/components/access-invite';
-import { AccessPeople } from '@/components/access-people';
-import { ChoiceField } from '@/components/fields';
-import { Screen } from '@/components/screen';
-import { EmptyState, ErrorState, LoadingState } from '@/components/states';
+import { AccessInvite } from '@/components/access/access-invite';
+import { AccessPeople } from '@/components/access/access-people';
+import { ChoiceField } from '@/components/ui/fields';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { usePeople } from '@/hooks/use-access';
 import { useSession } from '@/hooks/use-session';
 

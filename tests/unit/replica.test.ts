@@ -1,7 +1,7 @@
 /** The device's copy: pulls and queued changes laid over it (lib/replica.ts). */
 import assert from 'node:assert/strict';
 import { describe, it } from 'node:test';
-import { applyMutation, applyPull, cursorsOf, EMPTY_REPLICA, EMPTY_SYNC_LOG, recordResult, resumesOf, type Replica } from '../../lib/replica';
+import { applyMutation, applyPull, cursorsOf, describeMutation, EMPTY_REPLICA, EMPTY_SYNC_LOG, recordResult, resumesOf, type Replica } from '../../lib/replica';
 import type { Building, Circuit, Panel } from '../../shared/schemas';
 import type { BuildingPage, Mutation } from '../../shared/sync';
 
@@ -159,5 +159,59 @@ describe('the condition record on the device', () => {
     const r = pull(legacy, page({ toVersion: 6, upserts: { trips: [{ ...sync('t1', 6), buildingId: 'b1' } as never] } }));
     assert.deepEqual(Object.keys(r.buildings.b1.trips!), ['t1']);
     assert.deepEqual(r.buildings.b1.photos, {});
+  });
+});
+
+describe('the kind table (one entry per kind, no case per name)', () => {
+  const hlc = '2026-03-02T09:00:00.000Z-0000-dev1';
+  const m = (name: Mutation['name'], entityId: string, fields: Record<string, unknown> = {}, parentId?: string): Mutation => ({
+    id: `k-${entityId}-${name}`, name, buildingId: 'b1', entityId, baseVersion: 0, hlc, fields, ...(parentId && { parentId }),
+  });
+
+  it('a circuit create laid again over the pulled row keeps the server’s row, as a record create does', () => {
+    const pulled = pull(snapshot, page({ toVersion: 4, upserts: { circuits: [circuit('c9', 9, 'Sign (as the server has it)', 4)] } }));
+    const relaid = applyMutation(pulled, m('circuit.create', 'c9', { position: 9, poles: 1, description: 'Sign' }, 'p1'), 'u1');
+    assert.equal(relaid.buildings.b1.circuits.c9.description, 'Sign (as the server has it)');
+    assert.equal(relaid.buildings.b1.circuits.c9.version, 4);
+  });
+
+  it('a change to a row that is not on the device leaves the copy as it was (nothing new to save)', () => {
+    for (const name of ['circuit.delete', 'circuit.patch', 'panel.delete', 'panel.patch'] as const) {
+      const next = applyMutation(snapshot, m(name, 'not-here', name.endsWith('patch') ? { tag: 'X' } : {}), 'u1');
+      assert.equal(next.buildings.b1, snapshot.buildings.b1, name);
+    }
+  });
+
+  it('a panel delete takes its circuits; a building patch stamps the building', () => {
+    const gone = applyMutation(snapshot, m('panel.delete', 'p1'), 'u1');
+    assert.deepEqual(gone.buildings.b1.panels, {});
+    assert.deepEqual(gone.buildings.b1.circuits, {});
+    const renamed = applyMutation(snapshot, m('building.patch', 'b1', { name: 'Clinic west' }), 'u1');
+    assert.equal(renamed.buildings.b1.building.name, 'Clinic west');
+    assert.equal(renamed.buildings.b1.building.updatedAt, hlc);
+  });
+
+  it('verbs the device does not show (restores, a building create) wait for the pull', () => {
+    for (const name of ['circuit.restore', 'panel.restore', 'building.create', 'building.restore', 'panel.create'] as const) {
+      assert.equal(applyMutation(snapshot, m(name, 'x1', {}, 'b1'), 'u1'), snapshot, name);
+    }
+  });
+
+  it('every kind reads as words on the Sync tab', () => {
+    const withD = applyMutation(snapshot, m('deficiency.create', 'd1', { title: 'Hot lug', priority: 1 }), 'u1');
+    const cases: [Mutation, string][] = [
+      [m('circuit.patch', 'c1', { description: 'x' }), 'LA · 1 patch: description'],
+      [m('circuit.create', 'c7', { position: 7 }, 'p1'), 'LA · 7 create'],
+      [m('panel.patch', 'p1', { tag: 'LB' }), 'Panel LA patch: tag'],
+      [m('building.patch', 'b1', { name: 'x' }), 'Clinic patch: name'],
+      [m('conflict.resolve', 'k1', { resolution: 'kept_theirs' }), 'Review decision (kept_theirs)'],
+      [m('deficiency.patch', 'd1', { status: 'scheduled' }), 'Deficiency patch · Hot lug: status'],
+      [m('reading.create', 'r1', { kind: 'thermal' }), 'Reading create · thermal'],
+      [m('comment.create', 'e1', { deficiencyId: 'd1', text: 'x' }), 'Comment create'],
+      [m('trip.delete', 't1'), 'Recorded trip delete'],
+      [m('photo.create', 'f1', {}), 'Photo create'],
+      [m('inspection.sign', 'i1'), 'Inspection sign'],
+    ];
+    for (const [mutation, words] of cases) assert.equal(describeMutation(withD, mutation), words);
   });
 });

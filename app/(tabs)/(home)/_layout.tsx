@@ -1,6 +1,6 @@
 import { Stack } from 'expo-router';
-import { headerOptions } from '@/components/header-options';
-import { colours } from '@/components/theme';
+import { headerOptions } from '@/components/ui/header-options';
+import { colours } from '@/components/ui/theme';
 
 /**
  * The Buildings tab is a stack: a building, its panels, circuits, inspections and trips open on top

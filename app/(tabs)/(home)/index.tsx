@@ -1,9 +1,10 @@
 import { useRouter } from 'expo-router';
-import { Pressable, StyleSheet, View } from 'react-native';
-import { Screen } from '@/components/screen';
-import { EmptyState, ErrorState, LoadingState } from '@/components/states';
-import { Text } from '@/components/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/theme';
+import { StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { colours, MIN_TOUCH } from '@/components/ui/theme';
 import { useBuildings } from '@/hooks/use-register';
 
 const ROLE_LABEL = { admin: 'admin', electrician: 'electrician', inspector: 'inspector', owner: 'owner' } as const;
@@ -28,12 +29,13 @@ export default function Buildings() {
     <>
       <Screen>
         {list.map((b) => (
-          <Pressable
+          <PressableCard
+            size="section"
             key={b.id}
             accessibilityRole="button"
             accessibilityLabel={`Building ${b.name}`}
             onPress={() => router.push({ pathname: '/buildings/[buildingId]', params: { buildingId: b.id } })}
-            style={({ pressed }) => [styles.card, pressed && styles.pressed]}
+            style={styles.card}
           >
             <View style={styles.text}>
               <Text variant="heading">{b.name}</Text>
@@ -43,7 +45,7 @@ export default function Buildings() {
               </Text>
             </View>
             <Text tone="faint" variant="heading">›</Text>
-          </Pressable>
+          </PressableCard>
         ))}
       </Screen>
     </>
@@ -55,14 +57,8 @@ const styles = StyleSheet.create({
     minHeight: MIN_TOUCH + 24,
     flexDirection: 'row',
     alignItems: 'center',
-    padding: space.lg,
-    backgroundColor: colours.card,
-    borderRadius: radii.lg,
-    borderWidth: 1,
-    borderColor: colours.rule,
     borderLeftWidth: 6,
     borderLeftColor: colours.copper,
   },
-  pressed: { opacity: 0.7 },
   text: { flex: 1, gap: 2 },
 });

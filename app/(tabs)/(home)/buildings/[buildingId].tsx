@@ -1,14 +1,14 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import { BuildingDeficiencies } from '@/components/deficiency-building';
-import { DirectorySearch } from '@/components/directory-search';
-import { FeederTree } from '@/components/feeder-tree';
-import { BuildingInspections } from '@/components/inspection-entry';
-import { BuildingMaintenanceDue } from '@/components/maintenance-due';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
-import { Text } from '@/components/text';
-import { space } from '@/components/theme';
+import { BuildingDeficiencies } from '@/components/deficiencies/deficiency-building';
+import { DirectorySearch } from '@/components/register/directory-search';
+import { FeederTree } from '@/components/register/feeder-tree';
+import { BuildingInspections } from '@/components/inspections/inspection-entry';
+import { BuildingMaintenanceDue } from '@/components/register/maintenance-due';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { space } from '@/components/ui/theme';
 import { useBuilding } from '@/hooks/use-register';
 
 export default function BuildingScreen() {

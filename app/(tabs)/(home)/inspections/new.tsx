@@ -1,10 +1,10 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
-import { InspectionForm } from '@/components/inspection-form';
-import { canRecordInspections, localToday } from '@/components/inspection-format';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
-import { Text } from '@/components/text';
+import { InspectionForm } from '@/components/inspections/inspection-form';
+import { canRecordInspections, localToday } from '@/components/inspections/inspection-format';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
 import { useRecordWrites } from '@/hooks/use-records';
 import { useBuilding, usePanel } from '@/hooks/use-register';
 import type { InspectionCreateBody } from '@/shared/records';

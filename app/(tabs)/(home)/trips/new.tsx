@@ -1,12 +1,12 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
-import { breakerLabel, directoryText } from '@/components/circuit-format';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
-import { Text } from '@/components/text';
-import { space } from '@/components/theme';
-import { TripForm } from '@/components/trip-form';
+import { breakerLabel, directoryText } from '@/components/register/circuit-format';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { space } from '@/components/ui/theme';
+import { TripForm } from '@/components/trips/trip-form';
 import { useRecordWrites } from '@/hooks/use-records';
 import { usePanel } from '@/hooks/use-register';
 

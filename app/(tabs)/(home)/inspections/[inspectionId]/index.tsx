@@ -1,18 +1,18 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
-import { useInspectionActions } from '@/components/inspection-actions';
-import { InspectionDeficiencies } from '@/components/inspection-deficiencies';
-import { InspectionForm } from '@/components/inspection-form';
+import { useInspectionActions } from '@/components/inspections/inspection-actions';
+import { InspectionDeficiencies } from '@/components/inspections/inspection-deficiencies';
+import { InspectionForm } from '@/components/inspections/inspection-form';
 import { INSPECTION_KIND_LABELS } from '@/shared/records';
-import { InspectionHeader } from '@/components/inspection-header';
-import { InspectionPanel } from '@/components/inspection-panel';
-import { InspectionSignOff } from '@/components/inspection-signoff';
-import { ReportPdfButton, SendReportButton } from '@/components/print-button';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { replicaGate } from '@/components/states';
-import { space, WIDE_MIN_WIDTH } from '@/components/theme';
+import { InspectionHeader } from '@/components/inspections/inspection-header';
+import { InspectionPanel } from '@/components/inspections/inspection-panel';
+import { InspectionSignOff } from '@/components/inspections/inspection-signoff';
+import { ReportPdfButton, SendReportButton } from '@/components/documents/print-button';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { replicaGate } from '@/components/ui/states';
+import { space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 import { useInspection } from '@/hooks/use-records';
 
 export default function InspectionScreen() {
@@ -21,16 +21,16 @@ export default function InspectionScreen() {
   const wide = useWindowDimensions().width >= WIDE_MIN_WIDTH;
   const query = useInspection(inspectionId);
   const [editing, setEditing] = useState(false);
-  const actions = useInspectionActions(query.data?.copy, query.data?.inspection);
+  const actions = useInspectionActions(query.data?.view, query.data?.inspection);
   const gate = replicaGate(query, 'inspection');
   if (gate || !query.data) return gate;
-  const { inspection, readings, deficiencies, panels, copy } = query.data;
+  const { inspection, readings, deficiencies, panels, view } = query.data;
   const raisedFor = new Set(deficiencies.map((d) => d.readingId).filter((id): id is string => !!id));
   const panelsWithReadings = [...new Set(readings.map((r) => r.reading.panelId))];
 
   const header = editing ? (
     <InspectionForm
-      panels={Object.values(copy.panels).sort((a, b) => a.tag.localeCompare(b.tag, undefined, { numeric: true }))}
+      panels={view.panels()}
       initial={inspection}
       isNew={false}
       lockedPanelIds={panelsWithReadings}
@@ -43,7 +43,7 @@ export default function InspectionScreen() {
   ) : (
     <InspectionHeader
       inspection={inspection}
-      buildingName={copy.building.name}
+      buildingName={view.building.name}
       panels={panels}
       myId={actions.myId}
       onEdit={actions.canRecord ? () => setEditing(true) : undefined}
@@ -54,7 +54,7 @@ export default function InspectionScreen() {
     <InspectionPanel
       key={panel.id}
       panel={panel}
-      circuits={copy.circuits}
+      view={view}
       readings={readings.filter((r) => r.reading.panelId === panel.id)}
       raisedFor={raisedFor}
       kind={inspection.kind}
@@ -75,7 +75,7 @@ export default function InspectionScreen() {
     <>
       <InspectionDeficiencies
         deficiencies={deficiencies}
-        panels={copy.panels}
+        view={view}
         canRaise={actions.canRaise}
         onOpen={(d) => router.push({ pathname: '/deficiencies/[deficiencyId]', params: { deficiencyId: d.id } })}
       />

@@ -1,15 +1,15 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
-import { blankReading, useInspectionActions } from '@/components/inspection-actions';
-import { READING_KIND_LABELS } from '@/components/inspection-format';
-import { ReadingCard } from '@/components/reading-card';
-import { ReadingFollowUp } from '@/components/reading-follow-up';
-import { ReadingForm } from '@/components/reading-form';
-import { SafetyNote } from '@/components/safety-note';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
-import { Text } from '@/components/text';
-import { colours, radii, space, WIDE_MIN_WIDTH } from '@/components/theme';
+import { blankReading, useInspectionActions } from '@/components/inspections/inspection-actions';
+import { READING_KIND_LABELS } from '@/components/inspections/inspection-format';
+import { ReadingCard } from '@/components/inspections/readings/reading-card';
+import { ReadingFollowUp } from '@/components/inspections/readings/reading-follow-up';
+import { ReadingForm } from '@/components/inspections/readings/reading-form';
+import { SafetyNote } from '@/components/ui/safety-note';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
+import { Text } from '@/components/ui/text';
+import { colours, radii, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 import { useBands, useInspection } from '@/hooks/use-records';
 import { confirmAction } from '@/lib/confirm';
 import type { ReadingFields } from '@/shared/records';
@@ -30,10 +30,10 @@ export default function ReadingScreen() {
   const wide = useWindowDimensions().width >= WIDE_MIN_WIDTH;
   const query = useInspection(params.inspectionId);
   const bands = useBands().data;
-  const actions = useInspectionActions(query.data?.copy, query.data?.inspection);
+  const actions = useInspectionActions(query.data?.view, query.data?.inspection);
   const gate = replicaGate(query, 'inspection');
   if (gate || !query.data) return gate;
-  const { inspection, readings, deficiencies, copy } = query.data;
+  const { inspection, readings, deficiencies, view } = query.data;
 
   const existing = params.readingId ? readings.find((r) => r.reading.id === params.readingId) : undefined;
   if (params.readingId && !existing) {
@@ -44,11 +44,9 @@ export default function ReadingScreen() {
     return <EmptyState title="Which kind of reading?" hint="Go back to the inspection and choose thermal, torque or trip test." />;
   }
   const panelId = existing?.reading.panelId ?? (inspection.panelIds.includes(params.panelId ?? '') ? params.panelId : inspection.panelIds[0]);
-  const panel = panelId ? copy.panels[panelId] : undefined;
+  const panel = panelId ? view.panel(panelId) : undefined;
   if (!panel) return <EmptyState title="Panel not on this device" hint="The panel of this reading was deleted, or is not in the inspection." />;
-  const circuits = Object.values(copy.circuits)
-    .filter((c) => c.panelId === panel.id)
-    .sort((a, b) => a.position - b.position);
+  const circuits = view.circuitsOf(panel.id);
   const title = `${READING_KIND_LABELS[kind]} · ${panel.tag}`;
   const back = () =>
     router.canGoBack() ? router.back() : router.replace({ pathname: '/inspections/[inspectionId]', params: { inspectionId: inspection.id } });
@@ -71,7 +69,7 @@ export default function ReadingScreen() {
           <ReadingCard
             reading={existing.reading}
             assessment={existing.assessment}
-            circuit={existing.reading.circuitId ? (copy.circuits[existing.reading.circuitId] ?? null) : null}
+            circuit={existing.reading.circuitId ? (view.circuit(existing.reading.circuitId) ?? null) : null}
             hasDeficiency={!!deficiencyOf(existing.reading.id)}
           />
           <ReadingFollowUp
@@ -81,7 +79,7 @@ export default function ReadingScreen() {
             deficiency={deficiencyOf(existing.reading.id)}
             canRaise={false}
             canAddPhotos={false}
-            buildingId={copy.building.id}
+            buildingId={view.building.id}
             onRaise={() => undefined}
             onOpenDeficiency={(d) => openDeficiency(d.id)}
           />
@@ -103,7 +101,7 @@ export default function ReadingScreen() {
       <Screen wide={wide}>
         <View style={styles.head}>
           <Text variant="small" tone="soft">
-            {copy.building.name} · panel {panel.tag}
+            {view.building.name} · panel {panel.tag}
           </Text>
           <Text variant="title">{existing ? READING_KIND_LABELS[kind] : `New ${READING_KIND_LABELS[kind].toLowerCase()}`}</Text>
           <View style={styles.caution} testID="kind-caution">
@@ -119,7 +117,7 @@ export default function ReadingScreen() {
           ambientC={inspection.ambientC}
           wide={wide}
           contextFor={(r) => {
-            const circuit = r.circuitId ? (copy.circuits[r.circuitId] ?? null) : null;
+            const circuit = r.circuitId ? (view.circuit(r.circuitId) ?? null) : null;
             const bandId = r.bandId ?? circuit?.bandId ?? null;
             return { circuit, panel, band: bandId ? bands?.find((b) => b.id === bandId) : null };
           }}
@@ -152,7 +150,7 @@ export default function ReadingScreen() {
                 deficiency={deficiencyOf(readingId)}
                 canRaise={actions.canRaise}
                 canAddPhotos={actions.canRecord}
-                buildingId={copy.building.id}
+                buildingId={view.building.id}
                 onRaise={() => saved && actions.raiseFromReading(saved.reading, saved.assessment)}
                 onOpenDeficiency={(d) => openDeficiency(d.id)}
               />

@@ -1,7 +1,7 @@
 import { useLocalSearchParams, useRouter } from 'expo-router';
-import { PanelForm } from '@/components/panel-form';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
+import { PanelForm } from '@/components/register/panel-form';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
 import { usePanelSave } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
 import { canEditSchedules } from '@/hooks/use-session';

@@ -1,6 +1,6 @@
 import { Stack, useLocalSearchParams } from 'expo-router';
-import { CsvImport } from '@/components/csv-import';
-import { Screen } from '@/components/screen';
+import { CsvImport } from '@/components/csv/csv-import';
+import { Screen } from '@/components/ui/screen';
 
 export default function ImportScheduleScreen() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();

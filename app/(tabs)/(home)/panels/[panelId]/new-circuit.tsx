@@ -1,7 +1,7 @@
 import { useLocalSearchParams, useRouter } from 'expo-router';
-import { CircuitForm, NEW_CIRCUIT } from '@/components/circuit-form';
-import { Screen } from '@/components/screen';
-import { EmptyState, replicaGate } from '@/components/states';
+import { CircuitForm, NEW_CIRCUIT } from '@/components/register/circuit-form';
+import { Screen } from '@/components/ui/screen';
+import { EmptyState, replicaGate } from '@/components/ui/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
 import { canEditSchedules } from '@/hooks/use-session';

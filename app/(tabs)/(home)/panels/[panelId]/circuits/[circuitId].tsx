@@ -1,8 +1,8 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
-import { CircuitDetails, CircuitForm } from '@/components/circuit-form';
-import { Screen } from '@/components/screen';
-import { CircuitRecord, CircuitRecordSummary } from '@/components/trip-record';
-import { EmptyState, replicaGate } from '@/components/states';
+import { CircuitDetails, CircuitForm } from '@/components/register/circuit-form';
+import { Screen } from '@/components/ui/screen';
+import { CircuitRecord, CircuitRecordSummary } from '@/components/trips/trip-record';
+import { EmptyState, replicaGate } from '@/components/ui/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
 import { canEditSchedules } from '@/hooks/use-session';

@@ -1,0 +1,212 @@
+/**
+ * The Findings list: every deficiency on the device across the user's buildings, outstanding ones
+ * by default, filtered by priority, status, building and due date, most urgent first, with the
+ * count of each priority at the top (each a filter button, with its word).
+ */
+import { Pressable, StyleSheet, View } from 'react-native';
+import { PressableCard } from '@/components/ui/card';
+import { byUrgency, type DeficiencyRow } from '@/hooks/use-records';
+import { isOutstanding } from '@/shared/deficiency';
+import { DEFICIENCY_STATUSES, PRIORITIES, PRIORITY_LABELS, STATUS_LABELS, type DeficiencyStatus, type Priority } from '@/shared/records';
+import { daysBetween, dueLine, whereText } from './deficiency-format';
+import { StatusWord } from './deficiency-parts';
+import { ChoiceField } from '@/components/ui/fields';
+import { PRIORITY_COLOURS, PriorityChip } from './priority-chip';
+import { Text } from '@/components/ui/text';
+import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+
+export type StatusFilter = 'outstanding' | 'all' | DeficiencyStatus;
+export type DueFilter = 'all' | 'overdue' | 'soon';
+export interface FindingFilters {
+  priority: Priority | null;
+  status: StatusFilter;
+  buildingId: string | null;
+  due: DueFilter;
+}
+export const DEFAULT_FILTERS: FindingFilters = { priority: null, status: 'outstanding', buildingId: null, due: 'all' };
+
+/** Due within this many days counts as "due soon" in the filter. */
+export const SOON_DAYS = 30;
+
+function matches(row: DeficiencyRow, f: FindingFilters, today: string, skipPriority = false): boolean {
+  const d = row.deficiency;
+  if (!skipPriority && f.priority !== null && d.priority !== f.priority) return false;
+  if (f.status === 'outstanding' ? !isOutstanding(d.status) : f.status !== 'all' && d.status !== f.status) return false;
+  if (f.buildingId && d.buildingId !== f.buildingId) return false;
+  if (f.due === 'overdue' && !dueLine(d, today).overdue) return false;
+  if (f.due === 'soon') {
+    const days = daysBetween(today, d.dueOn);
+    if (!isOutstanding(d.status) || days < 0 || days > SOON_DAYS) return false;
+  }
+  return true;
+}
+
+/** The rows the filters let through, most urgent first, and the count of each priority. */
+export function applyFilters(rows: readonly DeficiencyRow[], f: FindingFilters, today: string) {
+  const shown = rows.filter((r) => matches(r, f, today)).sort((a, b) => byUrgency(a.deficiency, b.deficiency));
+  const base = rows.filter((r) => matches(r, f, today, true));
+  const counts = Object.fromEntries(PRIORITIES.map((p) => [p, base.filter((r) => r.deficiency.priority === p).length])) as Record<Priority, number>;
+  return { shown, counts };
+}
+
+const STATUS_FILTER_WORDS: Record<StatusFilter, string> = {
+  outstanding: 'Outstanding',
+  ...STATUS_LABELS,
+  all: 'All',
+};
+const DUE_WORDS: Record<DueFilter, string> = { all: 'Any date', overdue: 'Overdue', soon: `Due in ${SOON_DAYS} days` };
+
+/** One line saying what the filters show, e.g. "Outstanding · P2 soon · overdue · all buildings". */
+export function filterSummary(f: FindingFilters, buildingName: (id: string) => string): string {
+  return [
+    STATUS_FILTER_WORDS[f.status],
+    f.priority ? PRIORITY_LABELS[f.priority] : 'every priority',
+    f.due === 'all' ? null : DUE_WORDS[f.due].toLowerCase(),
+    f.buildingId ? buildingName(f.buildingId) : 'all buildings',
+  ]
+    .filter(Boolean)
+    .join(' · ');
+}
+
+/** The counts of each priority; each one filters by it (tap again for every priority). */
+export function PriorityCounts({ counts, value, onChange }: { counts: Record<Priority, number>; value: Priority | null; onChange: (p: Priority | null) => void }) {
+  return (
+    <View style={styles.counts} accessibilityRole="radiogroup" accessibilityLabel="Filter by priority" testID="priority-counts">
+      {PRIORITIES.map((p) => {
+        const selected = value === p;
+        return (
+          <Pressable
+            key={p}
+            accessibilityRole="radio"
+            aria-checked={selected}
+            accessibilityLabel={`${PRIORITY_LABELS[p]}: ${counts[p]}`}
+            onPress={() => onChange(selected ? null : p)}
+            style={({ pressed }) => [styles.count, { borderColor: PRIORITY_COLOURS[p] }, selected && styles.countSelected, pressed && styles.pressed]}
+            testID={`count-p${p}`}
+          >
+            <Text variant="title" tone={selected ? 'paper' : 'ink'}>
+              {counts[p]}
+            </Text>
+            <Text variant="label" tone={selected ? 'paper' : 'ink'}>
+              {selected ? '● ' : ''}
+              {PRIORITY_LABELS[p]}
+            </Text>
+          </Pressable>
+        );
+      })}
+    </View>
+  );
+}
+
+export function FindingFiltersForm({
+  filters,
+  onChange,
+  buildings,
+}: {
+  filters: FindingFilters;
+  onChange: (f: FindingFilters) => void;
+  buildings: readonly { id: string; name: string }[];
+}) {
+  return (
+    <View style={styles.filters} testID="finding-filters">
+      <ChoiceField
+        label="Status"
+        choices={(['outstanding', ...DEFICIENCY_STATUSES, 'all'] as StatusFilter[]).map((value) => ({ value, label: STATUS_FILTER_WORDS[value] }))}
+        value={filters.status}
+        onChange={(status) => onChange({ ...filters, status })}
+        hint="Outstanding: open, scheduled, or repaired and waiting to be verified."
+      />
+      <ChoiceField
+        label="Due"
+        choices={(['all', 'overdue', 'soon'] as DueFilter[]).map((value) => ({ value, label: DUE_WORDS[value] }))}
+        value={filters.due}
+        onChange={(due) => onChange({ ...filters, due })}
+      />
+      {buildings.length > 1 && (
+        <ChoiceField
+          label="Building"
+          choices={[{ value: null as string | null, label: 'All buildings' }, ...buildings.map((b) => ({ value: b.id as string | null, label: b.name }))]}
+          value={filters.buildingId}
+          onChange={(buildingId) => onChange({ ...filters, buildingId })}
+        />
+      )}
+    </View>
+  );
+}
+
+export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRow; today: string; selected: boolean; onOpen: () => void }) {
+  const d = row.deficiency;
+  const due = dueLine(d, today);
+  return (
+    <PressableCard
+      accessibilityRole="link"
+      accessibilityLabel={`${PRIORITY_LABELS[d.priority]}: ${d.title}. ${STATUS_LABELS[d.status]}, ${due.text}`}
+      aria-current={selected ? true : undefined}
+      onPress={onOpen}
+      style={[styles.row, { borderLeftColor: PRIORITY_COLOURS[d.priority] }, selected && styles.rowSelected]}
+      testID={`finding-${d.id}`}
+    >
+      <View style={styles.rowTop}>
+        <PriorityChip priority={d.priority} size="small" />
+        <StatusWord status={d.status} />
+        {row.photoCount > 0 && (
+          <Text variant="small" tone="soft" testID="finding-photos">
+            ▣ {row.photoCount} photo{row.photoCount === 1 ? '' : 's'}
+          </Text>
+        )}
+      </View>
+      <Text variant="strong" testID="finding-title">
+        {d.title}
+      </Text>
+      <Text variant="small" tone="soft" numberOfLines={2}>
+        {whereText(row.view, d)}
+      </Text>
+      <Text variant="small" tone={due.overdue ? 'danger' : 'ink'} testID="finding-due">
+        {due.overdue ? '⚠ ' : ''}
+        {due.text}
+      </Text>
+    </PressableCard>
+  );
+}
+
+const styles = StyleSheet.create({
+  counts: { flexDirection: 'row', gap: space.sm },
+  count: {
+    flex: 1,
+    minHeight: MIN_TOUCH + 16,
+    borderWidth: 2,
+    borderRadius: radii.md,
+    backgroundColor: colours.card,
+    alignItems: 'center',
+    justifyContent: 'center',
+    paddingVertical: space.xs,
+    paddingHorizontal: 2,
+  },
+  countSelected: { backgroundColor: colours.ink },
+  filters: { gap: space.md },
+  row: {
+    minHeight: MIN_TOUCH,
+    borderLeftWidth: 6,
+    gap: space.xs,
+  },
+  rowSelected: { borderColor: colours.copper, borderWidth: 2, borderLeftWidth: 6, backgroundColor: colours.copperSoft },
+  rowTop: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
+  pressed: { opacity: 0.75 },
+});
+
+export type FindingsView = 'deficiencies' | 'maintenance';
+
+/** Deficiencies or the maintenance due list (components/maintenance-due.tsx), each with its word. */
+export function FindingsViewSwitch({ value, onChange }: { value: FindingsView; onChange: (v: FindingsView) => void }) {
+  return (
+    <ChoiceField
+      label="Show"
+      value={value}
+      onChange={onChange}
+      choices={[
+        { value: 'deficiencies', label: 'Deficiencies' },
+        { value: 'maintenance', label: 'Maintenance due' },
+      ]}
+    />
+  );
+}

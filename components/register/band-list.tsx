@@ -1,0 +1,40 @@
+/** The organisation's time-current bands: label, rating, how many points, where they came from. */
+import { StyleSheet, View } from 'react-native';
+import { Card } from '@/components/ui/card';
+import type { Band } from '@/shared/records';
+import { Text } from '@/components/ui/text';
+import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+
+export function BandList({ bands }: { bands: Band[] }) {
+  return (
+    <View style={styles.list} testID="band-list">
+      {bands.map((band) => (
+        <Card size="row" key={band.id} style={styles.row} testID="band-row" accessibilityLabel={`${band.label}, ${band.ratingA} amperes, ${band.points.length} points`}>
+          <View style={styles.rating}>
+            <Text variant="readingBold" tone="paper">{band.ratingA} A</Text>
+          </View>
+          <View style={styles.text}>
+            <Text variant="strong">{band.label}</Text>
+            <Text variant="small" tone="soft">
+              <Text variant="reading">{band.points.length}</Text> points · {band.points[0]?.multiple}× to {band.points[band.points.length - 1]?.multiple}×
+              {band.instantaneousMultiple ? ` · instantaneous ${band.instantaneousMultiple}×${band.instantaneousTolerancePct !== null ? ` ±${band.instantaneousTolerancePct} %` : ''}` : ''}
+            </Text>
+            <Text variant="small" tone="faint">{band.source || 'Source not recorded'}</Text>
+          </View>
+        </Card>
+      ))}
+    </View>
+  );
+}
+
+const styles = StyleSheet.create({
+  list: { gap: space.sm },
+  row: {
+    minHeight: MIN_TOUCH,
+    flexDirection: 'row',
+    alignItems: 'center',
+    gap: space.md,
+  },
+  rating: { backgroundColor: colours.ink, borderRadius: radii.sm, paddingHorizontal: space.sm, paddingVertical: 2, minWidth: 64, alignItems: 'center' },
+  text: { flex: 1, gap: 2 },
+});
