@@ -77,6 +77,8 @@ export const LOW_CONFIDENCE = 80;
 /** Marks a card uses for "the same breaker continues here" on the next position of its side. */
 const CONTINUATION = /^(?:[-–—_~"'“”〃=|↑^]+|tie|tied|ditto|same|do\.?|cont\.?|cont'd)$/i;
 const SPARE = /^spare$/i;
+/** Lone punctuation that is no mark of a card's own. */
+const STRAY = /^[.,:;!'`‘’·•]+$/;
 const SPACE = /^(?:space|blank|empty|none|n\/a|—)$/i;
 
 interface Part {
@@ -141,7 +143,10 @@ function readPart(part: Part, line: OcrLine, lineIndex: number, partIndex: numbe
 
   // a separate pole word ("2P") may stand anywhere; the rating stands first or last
   let poleWord: number | null = null;
-  const rest = part.tokens.slice(1).filter((token) => {
+  // grain on a photo is read as lone dots, colons and ticks; one mark alone may be a ditto
+  const marks = part.tokens.slice(1);
+  const kept = marks.length > 1 ? marks.filter((t) => !STRAY.test(t)) : marks;
+  const rest = kept.filter((token) => {
     const pw = poleWord === null ? readPoleWord(token) : null;
     if (pw !== null) poleWord = pw;
     return pw === null;

@@ -130,6 +130,19 @@ describe('line shapes', () => {
         [5, 1, 20, 'Fan'],
       ],
     ],
+    [
+      'stray marks the engine reads from grain are dropped',
+      ['11 30/2 Dryer', '13 -- : 14 20A Reception desk', '17 SPARE 20A ; 18 20A Server closet', '41 SPACE 42 SPACE !'],
+      [
+        [11, 2, 30, 'Dryer'],
+        [14, 1, 20, 'Reception desk'],
+        [17, 1, 20, '', 'spare'],
+        [18, 1, 20, 'Server closet'],
+        [41, 1, null, '', 'space'],
+        [42, 1, null, '', 'space'],
+      ],
+    ],
+    ['a lone ditto mark is still a continuation', ['1 2P-30 Dryer', '3 "'], [[1, 2, 30, 'Dryer']]],
     ['headings and notes are not circuits', ['PANEL LA DIRECTORY', 'CKT DESCRIPTION AMPS', '1 20A Lights'], [[1, 1, 20, 'Lights']]],
   ];
   for (const [name, lines, want] of cases) {
