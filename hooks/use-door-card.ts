@@ -63,7 +63,7 @@ export function useDoorCard(panelId: string) {
       if (!asset) return;
       setLines(null);
       setProgress({ step: 'Starting the reader', share: 0 });
-      const result = await recognizeCard(asset.uri, setProgress);
+      const result = await recognizeCard({ uri: asset.uri, file: asset.file ?? undefined }, setProgress);
       const draft = parseDoorCard(result.lines, { spaces });
       setPhoto({ uri: asset.uri, width: result.width, height: result.height });
       setUnread(draft.unread);

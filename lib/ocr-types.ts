@@ -16,3 +16,9 @@ export interface OcrResult {
   /** how long the read took */
   ms: number;
 }
+
+/** The picked photo: its URI (shown in the review) and, on the web, the file itself. */
+export interface CardImage {
+  uri: string;
+  file?: Blob;
+}

@@ -7,7 +7,7 @@ import { createWorker } from 'tesseract.js';
 import { linesOfPage, type EngineBlock } from '@/shared/door-card/ocr-lines';
 import { coreFileFor, OCR_PATHS } from './ocr-assets';
 import { coreFeature } from './ocr-feature';
-import type { OcrProgress, OcrResult } from './ocr-types';
+import type { CardImage, OcrProgress, OcrResult } from './ocr-types';
 
 const STEPS: Record<string, string> = {
   'loading tesseract core': 'Loading the reader',
@@ -26,7 +26,12 @@ function imageSize(url: string): Promise<{ width: number; height: number }> {
   });
 }
 
-export async function recognizeCard(imageUrl: string, onProgress: (p: OcrProgress) => void): Promise<OcrResult> {
+/**
+ * Reads the picked photo. The file itself is handed to the reader (the picker gives a `File` on
+ * the web): tesseract.js would otherwise fetch the `blob:` URL, which our connect-src refuses.
+ */
+export async function recognizeCard(photo: CardImage, onProgress: (p: OcrProgress) => void): Promise<OcrResult> {
+  const imageUrl = photo.uri;
   const started = performance.now();
   const size = await imageSize(imageUrl);
   const origin = window.location.origin;
@@ -42,7 +47,7 @@ export async function recognizeCard(imageUrl: string, onProgress: (p: OcrProgres
     logger: (m: { status: string; progress: number }) => onProgress({ step: STEPS[m.status] ?? m.status, share: m.progress }),
   });
   try {
-    const { data } = await worker.recognize(imageUrl, { rotateAuto: true }, { blocks: true });
+    const { data } = await worker.recognize(photo.file ?? imageUrl, { rotateAuto: true }, { blocks: true });
     const lines = linesOfPage(data.blocks as unknown as EngineBlock[], { radians: data.rotateRadians ?? 0, ...size });
     return { lines, ...size, ms: performance.now() - started };
   } finally {

@@ -8,7 +8,7 @@ import { useState } from 'react';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
 import { useDoorCard, type ReviewLine } from '@/hooks/use-door-card';
 import { canEditSchedules } from '@/hooks/use-session';
-import { planSummary } from '@/shared/csv';
+import { planSummary, type ImportPlan } from '@/shared/csv';
 import { LOW_CONFIDENCE } from '@/shared/door-card/parse';
 import { Button } from '../button';
 import { SafetyNote } from '../safety-note';
@@ -18,6 +18,9 @@ import { colours, radii, space } from '../theme';
 import { DraftLine } from './draft-line';
 
 const WIDE = 1024;
+
+/** The import's summary in the card's words: circuits the card does not list stay. */
+const cardSummary = (plan: ImportPlan) => planSummary(plan).replace('not in the file', 'not on the card');
 
 export function DoorCardReader({ panelId }: { panelId: string }) {
   const router = useRouter();
@@ -50,7 +53,7 @@ export function DoorCardReader({ panelId }: { panelId: string }) {
 
   const apply = () => {
     if (!plan) return;
-    const summary = planSummary(plan);
+    const summary = cardSummary(plan);
     card.apply();
     setApplied(summary);
   };
@@ -100,7 +103,7 @@ export function DoorCardReader({ panelId }: { panelId: string }) {
           <Text variant="small" tone="soft" testID="door-card-summary">
             {lines.length} position{lines.length === 1 ? '' : 's'} read
             {card.readMs !== null ? ` in ${(card.readMs / 1000).toFixed(1)} s` : ''} · {undecided} to look at
-            {plan ? ` · ${planSummary(plan)}` : ''}
+            {plan ? ` · ${cardSummary(plan)}` : ''}
           </Text>
           {lines.length === 0 && (
             <Text tone="danger">No numbered lines were found on this photo. Try again closer, square on and in good light.</Text>
