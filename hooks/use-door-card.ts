@@ -54,7 +54,6 @@ export function useDoorCard(panelId: string) {
   const [lines, setLines] = useState<ReviewLine[] | null>(null);
   const [unread, setUnread] = useState<DoorCardDraft['unread']>([]);
   const [readMs, setReadMs] = useState<number | null>(null);
-  const spaces = found?.panel.spaces;
 
   const read = useCallback(async () => {
     setError(null);
@@ -64,8 +63,9 @@ export function useDoorCard(panelId: string) {
       setLines(null);
       setProgress({ step: 'Starting the reader', share: 0 });
       const result = await recognizeCard({ uri: asset.uri, file: asset.file ?? undefined }, setProgress);
-      const draft = parseDoorCard(result.lines, { spaces });
-      setPhoto({ uri: asset.uri, width: result.width, height: result.height });
+      // every position is read, so one past the panel's spaces meets the import's check, not silence
+      const draft = parseDoorCard(result.lines);
+      setPhoto({ uri: result.imageUrl, width: result.width, height: result.height });
       setUnread(draft.unread);
       setReadMs(result.ms);
       setLines(reviewOf(draft));
@@ -74,7 +74,7 @@ export function useDoorCard(panelId: string) {
     } finally {
       setProgress(null);
     }
-  }, [spaces]);
+  }, []);
 
   const decide = useCallback((key: string, decision: LineDecision) => {
     setLines((ls) => ls && ls.map((l) => (l.key === key ? { ...l, decision } : l)));

@@ -13,6 +13,8 @@ export interface OcrResult {
   /** the photo's size in pixels (the boxes of the lines are on it) */
   width: number;
   height: number;
+  /** the image the lines' boxes are on (the photo, or its scaled-down copy) */
+  imageUrl: string;
   /** how long the read took */
   ms: number;
 }

@@ -6,6 +6,12 @@
 import { ocrFilesFor } from './ocr-assets';
 import { coreFeature } from './ocr-feature';
 
+async function missingFromCache(urls: string[]): Promise<string[]> {
+  if (typeof caches === 'undefined') return urls;
+  const kept = await Promise.all(urls.map((u) => caches.match(u).then(Boolean, () => false)));
+  return urls.filter((_u, i) => !kept[i]);
+}
+
 export function registerOfflineShell(): void {
   if (typeof navigator === 'undefined' || !('serviceWorker' in navigator)) return;
   navigator.serviceWorker.addEventListener('message', (event) => {
@@ -19,8 +25,9 @@ export function registerOfflineShell(): void {
         .getEntriesByType('resource')
         .map((entry) => entry.name)
         .filter((url) => !new URL(url).pathname.startsWith('/api/'));
-      // the door-card reader's worker, core and model: kept now, so a card is read with no signal
-      const ocr = ocrFilesFor(await coreFeature()).map((p) => location.origin + p);
+      // the door-card reader's worker, core and model (≈ 7 MB): kept now, so a card is read with no
+      // signal; their paths carry their versions, so one kept is never fetched again
+      const ocr = await missingFromCache(ocrFilesFor(await coreFeature()).map((p) => location.origin + p));
       registration.active?.postMessage({ type: 'cache-urls', urls: [location.origin + '/', ...loaded, ...ocr] });
     })
     .catch(() => undefined);

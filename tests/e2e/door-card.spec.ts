@@ -5,6 +5,7 @@
  * as one batch through the outbox, the schedule shows the positions, and the server gets them.
  */
 import { expect, test } from '@playwright/test';
+import sharp from 'sharp';
 import { CARD_CIRCUITS, renderCard } from '../unit/door-card-image';
 import { query } from './db';
 import { ARTIFACTS, expectQueueEmpty, expectStatus, signIn, waitOfflineReady } from './helpers';
@@ -37,10 +38,15 @@ test('a typed card of a 42-space panel is read offline into a draft, reviewed an
   await context.setOffline(true);
   await expectStatus(page, 'offline');
   await page.getByTestId('door-card-open').click();
-  const png = await renderCard('clean');
+  // as a phone camera gives it: a 4000 px JPEG with margin around the card (the reader scales it down)
+  const photo = await sharp(await renderCard('clean'))
+    .resize({ width: 3600 })
+    .extend({ top: 300, bottom: 300, left: 200, right: 200, background: '#ffffff' })
+    .jpeg({ quality: 88 })
+    .toBuffer();
   const chooser = page.waitForEvent('filechooser');
   await page.getByTestId('door-card-pick').click();
-  await (await chooser).setFiles({ name: 'door-card.png', mimeType: 'image/png', buffer: png });
+  await (await chooser).setFiles({ name: 'door-card.jpg', mimeType: 'image/jpeg', buffer: photo });
   await expect(page.getByTestId('door-card-progress')).toBeVisible();
   await expect(page.getByTestId('door-card-summary')).toBeVisible({ timeout: 90_000 });
   await page.screenshot({ path: `${ARTIFACTS}/door-card-draft.png`, fullPage: true });
