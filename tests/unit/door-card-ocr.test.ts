@@ -5,8 +5,9 @@
  * rating, description, status, after the parser) and of typed lines read exactly, and the time
  * per card; it asserts floors measured on this machine (not the time).
  *
- * Measured (2 cores, shared): clean 37/37 entries, turned 2.5° 37/37, faded 35–37/37,
- * grainy 26–30/37 (see DEVELOPERS.md for the figures of each run).
+ * Measured here (2 cores shared with other work; the same on each of three runs): clean 37/37
+ * entries, typed lines 22/22; turned 2.5° 37/37, 22/22; faded 37/37, 20/22; grainy 29/37, 8/22.
+ * 1.8–3.9 s per card (the first read of a worker is the slowest).
  */
 import { after, before, describe, it } from 'node:test';
 import assert from 'node:assert/strict';
@@ -22,9 +23,9 @@ import { CARD_CIRCUITS, cardText, renderCard, type Variant } from './door-card-i
 /** Floors per variant, a little under what was measured here (entries, typed lines). */
 const FLOORS: Record<Variant, { entries: number; lines: number }> = {
   clean: { entries: 0.95, lines: 0.95 },
-  rotated: { entries: 0.9, lines: 0.85 },
-  faded: { entries: 0.85, lines: 0.8 },
-  noisy: { entries: 0.5, lines: 0.25 },
+  rotated: { entries: 0.95, lines: 0.9 },
+  faded: { entries: 0.95, lines: 0.85 },
+  noisy: { entries: 0.7, lines: 0.3 },
 };
 
 const ARTIFACTS = path.join(__dirname, '../artifacts');
