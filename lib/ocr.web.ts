@@ -4,6 +4,7 @@
  * The service worker keeps those files, so this works with no signal once the app was opened.
  */
 import { createWorker } from 'tesseract.js';
+import { median3 } from '@/shared/door-card/denoise';
 import { linesOfPage, type EngineBlock } from '@/shared/door-card/ocr-lines';
 import { coreFileFor, OCR_PATHS } from './ocr-assets';
 import { coreFeature } from './ocr-feature';
@@ -19,12 +20,15 @@ const STEPS: Record<string, string> = {
 
 /**
  * A phone photo is often 4000 px wide: text that large only slows the reader. Past this long edge
- * the photo is scaled down (lossless PNG, turned upright by its EXIF orientation) [our choice: a
- * typed card filling a 2400 px frame has letters well above the ~20 px the model reads best].
+ * the photo is scaled down [our choice: a typed card filling a 2400 px frame has letters well
+ * above the ~20 px the model reads best].
  */
 export const OCR_LONG_EDGE = 2400;
 
-/** The image the reader gets and the review crops: the file as it is, or scaled down. */
+/**
+ * The image the reader gets and the review crops: the photo turned upright (EXIF), scaled to
+ * OCR_LONG_EDGE, in grey with its grain taken out (shared/door-card/denoise.ts), as a PNG.
+ */
 async function readableImage(photo: CardImage): Promise<{ image: Blob | string; url: string; width: number; height: number }> {
   if (!photo.file) {
     const size = await imageSize(photo.uri);
@@ -34,18 +38,30 @@ async function readableImage(photo: CardImage): Promise<{ image: Blob | string; 
     throw new Error('This file could not be opened as a picture (JPEG, PNG or WebP).');
   });
   try {
-    const long = Math.max(bitmap.width, bitmap.height);
-    if (long <= OCR_LONG_EDGE) return { image: photo.file, url: photo.uri, width: bitmap.width, height: bitmap.height };
-    const f = OCR_LONG_EDGE / long;
+    const f = Math.min(1, OCR_LONG_EDGE / Math.max(bitmap.width, bitmap.height));
     const width = Math.round(bitmap.width * f);
     const height = Math.round(bitmap.height * f);
     const canvas = document.createElement('canvas');
     canvas.width = width;
     canvas.height = height;
-    const context = canvas.getContext('2d');
+    const context = canvas.getContext('2d', { willReadFrequently: true });
     if (!context) throw new Error('This browser cannot prepare the photo for reading.');
+    context.fillStyle = '#FFFFFF';
+    context.fillRect(0, 0, width, height);
     context.imageSmoothingQuality = 'high';
     context.drawImage(bitmap, 0, 0, width, height);
+    const pixels = context.getImageData(0, 0, width, height);
+    const rgba = pixels.data;
+    const grey = new Uint8Array(width * height);
+    for (let i = 0; i < grey.length; i += 1) grey[i] = Math.round(0.299 * rgba[4 * i] + 0.587 * rgba[4 * i + 1] + 0.114 * rgba[4 * i + 2]);
+    const clean = median3(grey, width, height);
+    for (let i = 0; i < clean.length; i += 1) {
+      rgba[4 * i] = clean[i];
+      rgba[4 * i + 1] = clean[i];
+      rgba[4 * i + 2] = clean[i];
+      rgba[4 * i + 3] = 255;
+    }
+    context.putImageData(pixels, 0, 0);
     const blob = await new Promise<Blob>((resolve, reject) =>
       canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('The photo could not be prepared for reading.'))), 'image/png'),
     );

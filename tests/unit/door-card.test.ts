@@ -7,6 +7,7 @@ import { describe, it } from 'node:test';
 import assert from 'node:assert/strict';
 
 import { parseDoorCard, type OcrLine } from '../../shared/door-card/parse';
+import { median3 } from '../../shared/door-card/denoise';
 import { readPosition, readRating, repairDigits } from '../../shared/door-card/tokens';
 
 const BOX = { x0: 0, y0: 0, x1: 100, y1: 10 };
@@ -194,5 +195,39 @@ describe('line shapes', () => {
     const cs = parseDoorCard(lines.map((t) => line(t))).circuits;
     assert.deepEqual(cs.map((c) => c.position), Array.from({ length: 42 }, (_v, i) => i + 1));
     assert.ok(cs.every((c) => c.description === `Load ${c.position}` && c.ratingA === 20));
+  });
+});
+
+describe('the 3×3 median before reading', () => {
+  // a 5×5 white field (255) with one dark speck and a 3-pixel-wide dark stroke down the right
+  const W = 255;
+  const image = Uint8Array.from([
+    W, W, W, 0, 0,
+    W, 0, W, 0, 0,
+    W, W, W, 0, 0,
+    W, W, W, 0, 0,
+    W, W, W, 0, 0,
+  ]);
+  it('takes out a lone speck and keeps a stroke', () => {
+    const out = median3(image, 5, 5);
+    assert.equal(out[1 * 5 + 1], W, 'the speck is gone');
+    assert.deepEqual([3, 4].map((x) => out[2 * 5 + x]), [0, 0], 'the stroke stays');
+  });
+  it('gives the median of each 3×3 neighbourhood (against sorting, on pseudo-random pixels)', () => {
+    const w = 17;
+    const h = 11;
+    let seed = 7;
+    const grey = Uint8Array.from({ length: w * h }, () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31), seed % 256));
+    const out = median3(grey, w, h);
+    const at = (x: number, y: number) => grey[Math.min(h - 1, Math.max(0, y)) * w + Math.min(w - 1, Math.max(0, x))];
+    for (let y = 0; y < h; y += 1) {
+      for (let x = 0; x < w; x += 1) {
+        const window = [-1, 0, 1].flatMap((dy) => [-1, 0, 1].map((dx) => at(x + dx, y + dy))).sort((a, b) => a - b);
+        assert.equal(out[y * w + x], window[4], `pixel ${x},${y}`);
+      }
+    }
+  });
+  it('refuses a buffer that is not the size it is said to be', () => {
+    assert.throws(() => median3(image, 4, 5), /25 bytes do not make a 4×5 image/);
   });
 });
