@@ -11,7 +11,7 @@ import { useBands } from './use-records';
 import { useBuilding, usePanel } from './use-register';
 
 /** The panel, its circuits and the names the file uses for ids; null until the replica is read. */
-function useCsvContext(panelId: string) {
+export function useCsvContext(panelId: string) {
   const panelQuery = usePanel(panelId);
   const found = panelQuery.data;
   const building = useBuilding(found?.building.id ?? '').data;

@@ -239,4 +239,6 @@ ensure_web_build() {
     rm -f /tmp/ampwright-export-$$.log
     echo "$want" > dist/.source-hash
   fi
+  # the text recogniser's worker, core and English model, served from our own origin (lib/ocr-assets.ts)
+  tsx scripts/ocr-assets.ts dist || die "copying the text recogniser's files into dist/ failed"
 }

@@ -45,7 +45,10 @@ tsx_server scripts/db.ts migrate >/dev/null
 tsx_server scripts/db.ts seed-if-empty >/dev/null
 
 export TSX_TSCONFIG_PATH=server/tsconfig.json
+rm -f tests/artifacts/door-card-ocr.txt
 suite "unit (shared computations)" node --import tsx --test --test-reporter=dot $(find tests/unit -name "*.test.ts" | sort)
+# the door-card recognition figures per variant (tests/unit/door-card-ocr.test.ts writes them)
+if [ -f tests/artifacts/door-card-ocr.txt ]; then sed 's/^/  /' tests/artifacts/door-card-ocr.txt; fi
 suite "api (supertest on PostgreSQL)" node --import tsx --test --test-concurrency=1 --test-reporter=spec $(find tests/api -name "*.test.ts" | sort)
 
 ensure_web_build

@@ -67,6 +67,8 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
     helmet({
       contentSecurityPolicy: {
         directives: {
+          // WebAssembly: the door-card reader's worker compiles the text recogniser (tesseract.js-core)
+          'script-src': ["'self'", "'wasm-unsafe-eval'"],
           'img-src': ["'self'", 'data:', 'blob:'],
           'connect-src': ["'self'"],
           'font-src': ["'self'", 'data:'],

@@ -68,6 +68,14 @@ export default function PanelScreen() {
           )}
         </View>
         <CsvButtons panelId={panelId} canImport={canEdit} />
+        {canEdit && (
+          <Button
+            label="Read a door card"
+            tone="secondary"
+            testID="door-card-open"
+            onPress={() => router.push({ pathname: '/panels/[panelId]/door-card', params: { panelId } })}
+          />
+        )}
         <PrintDirectoryButton panelId={panelId} />
         {!canEdit && (
           <View style={styles.readOnly} testID="read-only-note">

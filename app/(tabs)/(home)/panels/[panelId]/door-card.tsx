@@ -1,0 +1,15 @@
+import { Stack, useLocalSearchParams } from 'expo-router';
+import { DoorCardReader } from '@/components/door-card/door-card-reader';
+import { Screen } from '@/components/screen';
+
+export default function DoorCardScreen() {
+  const { panelId } = useLocalSearchParams<{ panelId: string }>();
+  return (
+    <>
+      <Stack.Screen options={{ title: 'Read a door card' }} />
+      <Screen wide>
+        <DoorCardReader panelId={panelId} />
+      </Screen>
+    </>
+  );
+}
