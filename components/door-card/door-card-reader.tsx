@@ -10,11 +10,11 @@ import { useDoorCard, type ReviewLine } from '@/hooks/use-door-card';
 import { canEditSchedules } from '@/hooks/use-session';
 import { planSummary, type ImportPlan } from '@/shared/csv';
 import { LOW_CONFIDENCE } from '@/shared/door-card/parse';
-import { Button } from '../button';
-import { SafetyNote } from '../safety-note';
-import { EmptyState, replicaGate } from '../states';
-import { Text } from '../text';
-import { colours, radii, space } from '../theme';
+import { Button } from '../ui/button';
+import { SafetyNote } from '../ui/safety-note';
+import { EmptyState, replicaGate } from '../ui/states';
+import { Text } from '../ui/text';
+import { colours, radii, space } from '../ui/theme';
 import { DraftLine } from './draft-line';
 
 const WIDE = 1024;

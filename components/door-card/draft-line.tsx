@@ -3,10 +3,10 @@ import { useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import type { CardPhoto, LineEdit, ReviewLine } from '@/hooks/use-door-card';
 import { needsLook } from '@/shared/door-card/parse';
-import { Button } from '../button';
-import { ChoiceField, TextField } from '../fields';
-import { Text } from '../text';
-import { colours, radii, space } from '../theme';
+import { Button } from '../ui/button';
+import { ChoiceField, TextField } from '../ui/fields';
+import { Text } from '../ui/text';
+import { colours, radii, space } from '../ui/theme';
 import { PhotoCrop } from './photo-crop';
 
 const STATUS_CHOICES = [

@@ -2,7 +2,7 @@
 import { Image, StyleSheet, View } from 'react-native';
 import type { CardPhoto } from '@/hooks/use-door-card';
 import type { Box } from '@/shared/door-card/parse';
-import { colours, radii } from '../theme';
+import { colours, radii } from '../ui/theme';
 
 const PAD = 6;
 const MAX_WIDTH = 320;

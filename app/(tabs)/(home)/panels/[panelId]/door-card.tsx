@@ -1,6 +1,6 @@
 import { Stack, useLocalSearchParams } from 'expo-router';
 import { DoorCardReader } from '@/components/door-card/door-card-reader';
-import { Screen } from '@/components/screen';
+import { Screen } from '@/components/ui/screen';
 
 export default function DoorCardScreen() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();
