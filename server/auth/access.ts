@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type { Role } from '../../shared/domain';
 import { can, type Action } from '../../shared/permissions';
+import { queryPrepared } from '../db-prepared';
 import { ForbiddenError } from '../http/errors';
 
 /** Who is asking, with every organisation role and owner grant they hold. */
@@ -15,7 +16,10 @@ export interface Actor {
  * (role null) as rows of one union.
  */
 export async function loadActor(em: EntityManager, userId: string): Promise<Actor> {
-  const rows: { id: string; role: Role | null }[] = await em.query(
+  // every signed-in request asks this: planned once per connection
+  const rows = await queryPrepared<{ id: string; role: Role | null }>(
+    em,
+    'actor',
     `SELECT organisation_id AS id, role FROM membership WHERE user_id = $1
      UNION ALL SELECT building_id AS id, NULL AS role FROM owner_grant WHERE user_id = $1`,
     [userId],

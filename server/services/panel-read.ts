@@ -1,6 +1,7 @@
 import type { EntityManager, EntityTarget, ObjectLiteral } from 'typeorm';
 import type { Building as BuildingDto, Circuit as CircuitDto, Panel as PanelDto } from '../../shared/schemas';
 import { roleForBuilding, type Actor } from '../auth/access';
+import { queryPrepared } from '../db-prepared';
 import { Building, Circuit, Panel } from '../entities';
 import { NotFoundError } from '../http/errors';
 
@@ -62,7 +63,7 @@ type BuildingRow = Omit<BuildingDto, 'role' | 'panelCount'>;
 
 export async function readPanel(em: EntityManager, actor: Actor, id: string): Promise<PanelRead> {
   const [row]: { panel: PanelDto | null; building: BuildingRow | null; panelCount: number; circuits: CircuitDto[] }[] =
-    await em.query(statement(em), [id]);
+    await queryPrepared(em, 'panel-read', statement(em), [id]);
   const role = row.panel && row.building ? roleForBuilding(actor, row.building) : null;
   // another organisation's panel answers exactly as a missing one
   if (!row.panel || !row.building || !role) throw new NotFoundError('Panel');
