@@ -5,6 +5,7 @@ import type { Phase } from '@/shared/domain';
 import type { Circuit, Panel } from '@/shared/schemas';
 import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-format';
 import { Text } from '@/components/ui/text';
+import { MARKS, useFirstMark } from '@/lib/perf-mark';
 import { colours, MIN_TOUCH, radii, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 
 interface ScheduleProps {
@@ -56,6 +57,7 @@ function usePositions(panel: Panel, circuits: Circuit[]): Position[] {
 export function PanelSchedule(props: ScheduleProps) {
   const { width } = useWindowDimensions();
   const positions = usePositions(props.panel, props.circuits);
+  useFirstMark(MARKS.scheduleShown);
   return width >= WIDE_MIN_WIDTH ? (
     <WideSchedule {...props} positions={positions} />
   ) : (

@@ -36,7 +36,7 @@ function thumbSource(page: Page): Promise<string> {
 }
 
 test('offline: a P1 thermal reading raises a deficiency with a photo; after an offline reload and the signal back, the owner sees it with its thumbnail', async ({ browser }) => {
-  test.setTimeout(240_000);
+  test.setTimeout(480_000);
   const file = await photoFile();
   const inspectorContext = await browser.newContext({ viewport: { width: 390, height: 844 } });
   const page = await inspectorContext.newPage();
@@ -107,14 +107,14 @@ test('offline: a P1 thermal reading raises a deficiency with a photo; after an o
   await signIn(owner, 'owner');
   await owner.goto('/findings');
   const row = owner.getByTestId(`finding-${deficiencyId}`);
-  await expect(row).toBeVisible({ timeout: 20_000 });
+  await expect(row).toBeVisible({ timeout: 60_000 });
   await expect(row).toContainText('P1 now');
   await expect(row.getByTestId('finding-photos')).toContainText('1');
   await owner.goto(`/deficiencies/${deficiencyId}`);
   const ownerStrip = owner.getByTestId('photo-strip').first();
   await expect(ownerStrip.getByTestId('photo-thumb')).toHaveCount(1);
   await expect(ownerStrip.getByTestId('add-photo')).toHaveCount(0);
-  await expect.poll(() => thumbSource(owner), { timeout: 15_000 }).toContain(`/api/photos/${photo.id}/thumb`);
+  await expect.poll(() => thumbSource(owner), { timeout: 60_000 }).toContain(`/api/photos/${photo.id}/thumb`);
   const loaded = await owner.evaluate(async (url) => (await fetch(url)).headers.get('content-type'), `/api/photos/${photo.id}/thumb`);
   expect(loaded).toBe('image/webp');
   await owner.screenshot({ path: `${ARTIFACTS}/record-owner-deficiency-wide.png`, fullPage: true });

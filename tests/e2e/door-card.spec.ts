@@ -13,7 +13,7 @@ import { ARTIFACTS, expectQueueEmpty, expectStatus, signIn, waitOfflineReady } f
 const CLINIC = 'Brackenfold Family Clinic';
 
 test('a typed card of a 42-space panel is read offline into a draft, reviewed and applied', async ({ browser }) => {
-  test.setTimeout(150_000);
+  test.setTimeout(300_000);
   const context = await browser.newContext();
   const page = await context.newPage();
   const foreign: string[] = [];

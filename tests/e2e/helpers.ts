@@ -19,7 +19,7 @@ export async function openPanel(page: Page, building: string, tag: string) {
 
 /** Wait until the service worker keeps the app's files, so a reload with no signal still opens it. */
 export async function waitOfflineReady(page: Page) {
-  await expect(page.locator('html[data-offline-ready="true"]')).toHaveCount(1, { timeout: 20_000 });
+  await expect(page.locator('html[data-offline-ready="true"]')).toHaveCount(1, { timeout: 60_000 });
 }
 
 /** Open a circuit from the schedule, change its description, save, and be back on the schedule. */

@@ -17,7 +17,7 @@ function acceptDialogs(page: Page): string[] {
 }
 
 test('an inspector surveys panel LA: a hot lug is P1 now, a loose lug is loose, and the sign-off freezes it', async ({ page }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000);
   const dialogs = acceptDialogs(page);
   const pushed: { name: string; fields: Record<string, unknown> }[] = [];
   page.on('request', (request) => {
@@ -176,7 +176,7 @@ test('an owner reads inspections but is offered no way to start one', async ({ p
 });
 
 test('an electrician records a torque audit with no signal; it arrives when the signal returns, raising nothing', async ({ page, context }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000);
   await signIn(page, 'electrician');
   await openPanel(page, 'Brackenfold Family Clinic', 'LB');
   await waitOfflineReady(page);

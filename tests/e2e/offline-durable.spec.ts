@@ -49,7 +49,7 @@ async function storedBuildingEntries(page: Page) {
 }
 
 test(`offline edits and the schedule survive ${RELOADS} offline reloads, then arrive once`, async ({ browser }) => {
-  test.setTimeout(300_000);
+  test.setTimeout(600_000);
   const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
   const page = await context.newPage();
   await signIn(page, 'electrician');
@@ -80,7 +80,7 @@ test(`offline edits and the schedule survive ${RELOADS} offline reloads, then ar
 });
 
 test('a damaged stored copy is said so, re-pulled, and the queued change kept', async ({ browser }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000);
   const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
   const page = await context.newPage();
   await signIn(page, 'electrician');
@@ -134,7 +134,7 @@ test('a damaged stored copy is said so, re-pulled, and the queued change kept', 
 });
 
 test('an API answering 503 keeps the copy and the queued change through reloads', async ({ browser }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000);
   const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
   const page = await context.newPage();
   await signIn(page, 'electrician');

@@ -23,7 +23,7 @@ async function circuitText(panelTag: string, position: number) {
 }
 
 test('twenty edits offline across two panels survive two offline reloads and arrive once, in order', async ({ browser }) => {
-  test.setTimeout(180_000);
+  test.setTimeout(360_000);
   const { context, page } = await device(browser);
   await openPanel(page, 'Brackenfold Family Clinic', 'LA');
   await waitOfflineReady(page);
@@ -117,7 +117,7 @@ async function offlineEdit(page: Page, position: number, fields: { description?:
 }
 
 test('two devices edit one circuit offline: other fields both survive, the later write wins, the loser needs review on both', async ({ browser }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000);
   const a = await device(browser);
   const b = await device(browser, 'admin');
   for (const d of [a, b]) {
@@ -154,14 +154,14 @@ test('two devices edit one circuit offline: other fields both survive, the later
   }
   // A restores theirs: a new write that now wins everywhere
   await a.page.getByTestId('restore-mine').click();
-  await expect.poll(async () => (await circuitText('HP', 5)).description, { timeout: 20_000 }).toBe(`Washer W-3 (A) ${run}`);
+  await expect.poll(async () => (await circuitText('HP', 5)).description, { timeout: 60_000 }).toBe(`Washer W-3 (A) ${run}`);
   await expect(a.page.getByTestId('needs-review')).toContainText('No conflicts');
   await a.context.close();
   await b.context.close();
 });
 
 test('a device whose clock runs hours ahead is re-stamped: a later edit elsewhere still wins', async ({ browser }) => {
-  test.setTimeout(90_000);
+  test.setTimeout(240_000);
   const skewedContext = await browser.newContext({ viewport: { width: 390, height: 844 } });
   // this device's clock reads three hours ahead; its timers run normally
   await skewedContext.addInitScript(() => {
@@ -196,7 +196,7 @@ test('a device whose clock runs hours ahead is re-stamped: a later edit elsewher
 });
 
 test('delete against edit: the tombstone stands, the edit is kept for review, restore brings it back', async ({ browser }) => {
-  test.setTimeout(90_000);
+  test.setTimeout(240_000);
   const a = await device(browser);
   const b = await device(browser, 'admin');
   for (const d of [a, b]) {
@@ -220,7 +220,7 @@ test('delete against edit: the tombstone stands, the edit is kept for review, re
   await b.page.getByTestId('sync-status').filter({ visible: true }).first().click();
   await expect(b.page.getByTestId('needs-review')).toContainText(`Edited while deleted ${run}`);
   await b.page.getByTestId('restore-mine').click();
-  await expect.poll(async () => (await circuitText('HP', 17))?.description, { timeout: 20_000 }).toBe(`Edited while deleted ${run}`);
+  await expect.poll(async () => (await circuitText('HP', 17))?.description, { timeout: 60_000 }).toBe(`Edited while deleted ${run}`);
   await a.context.close();
   await b.context.close();
 });

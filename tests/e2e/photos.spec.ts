@@ -103,7 +103,7 @@ function thumbSource(page: Page, index = 0): Promise<string> {
 }
 
 test('a photo picked offline is kept on the device through a reload, uploads when the signal returns, and still shows offline', async ({ browser }) => {
-  test.setTimeout(180_000);
+  test.setTimeout(360_000);
   const run = Date.now() % 100000;
   const deficiencyId = await raiseDeficiency(`Photo test ${run}`);
   const jpeg = await bigJpeg(`panel-${run}.jpg`);
@@ -170,7 +170,7 @@ test('a photo picked offline is kept on the device through a reload, uploads whe
 
   // the pulled row says uploaded and the server's thumbnail is kept: the bytes leave the device
   await expect.poll(() => keptOnDevice(page), { timeout: 30_000 }).toBe(0);
-  await expect.poll(() => thumbSource(page), { timeout: 10_000 }).toContain(`/api/photos/${row.id}/thumb`);
+  await expect.poll(() => thumbSource(page), { timeout: 60_000 }).toContain(`/api/photos/${row.id}/thumb`);
 
   // and the thumbnail still shows offline after a reload (the browser's cache)
   await context.setOffline(true);
@@ -188,7 +188,7 @@ test('a photo picked offline is kept on the device through a reload, uploads whe
   const otherThumb = other.page.getByTestId('photo-strip').first().getByTestId('photo-thumb');
   await expect(otherThumb).toHaveCount(1);
   await expect(otherThumb.getByTestId('photo-status')).toContainText('synced');
-  await expect.poll(() => thumbSource(other.page), { timeout: 10_000 }).toContain(`/api/photos/${row.id}/thumb`);
+  await expect.poll(() => thumbSource(other.page), { timeout: 60_000 }).toContain(`/api/photos/${row.id}/thumb`);
   await otherThumb.getByTestId('photo-open').click();
   await expect(other.page.getByTestId('photo-full')).toBeVisible();
   await other.page.screenshot({ path: `${ARTIFACTS}/photo-viewer-wide.png` });
@@ -196,7 +196,7 @@ test('a photo picked offline is kept on the device through a reload, uploads whe
 });
 
 test('several photos picked at once are each kept and sent; a refused upload stops, says why, and survives a reload', async ({ browser }) => {
-  test.setTimeout(120_000);
+  test.setTimeout(300_000);
   const run = Date.now() % 100000;
   const deficiencyId = await raiseDeficiency(`Photo refusal ${run}`);
   const [a, b] = await Promise.all([bigJpeg(`a-${run}.jpg`), bigJpeg(`b-${run}.jpg`)]);
