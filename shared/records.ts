@@ -86,6 +86,11 @@ export const PRIORITIES = [1, 2, 3, 4] as const;
 export type Priority = (typeof PRIORITIES)[number];
 /** DESIGN.md §6 */
 export const PRIORITY_LABELS: Record<Priority, string> = { 1: 'P1 now', 2: 'P2 soon', 3: 'P3 planned', 4: 'P4 watch' };
+/**
+ * The priority's mark, for screens and print alike: how many of four bars are filled (P1 all four,
+ * P4 one). A count reads the same to a colour-blind reader and on a black-and-white printout.
+ */
+export const PRIORITY_BARS: Record<Priority, number> = { 1: 4, 2: 3, 3: 2, 4: 1 };
 export const STATUS_LABELS: Record<DeficiencyStatus, string> = {
   open: 'Open',
   scheduled: 'Scheduled',

@@ -9,6 +9,7 @@ import {
   filterSummary,
   FindingFiltersForm,
   FindingRow,
+  groupByPlace,
   FindingsViewSwitch,
   type FindingsView,
   PriorityCounts,
@@ -80,6 +81,7 @@ export default function Findings() {
     else router.push({ pathname: '/deficiencies/[deficiencyId]', params: { deficiencyId: id } });
   };
   const filtered = JSON.stringify(filters) !== JSON.stringify(DEFAULT_FILTERS);
+  const groups = groupByPlace(shown);
 
   const list = (
     <View style={styles.list}>
@@ -113,8 +115,16 @@ export default function Findings() {
         </EmptyState>
       ) : (
         <View style={styles.rows} testID="finding-rows">
-          {shown.map((row) => (
-            <FindingRow key={row.deficiency.id} row={row} today={today} selected={selected?.deficiency.id === row.deficiency.id} onOpen={() => open(row.deficiency.id)} />
+          {groups.map((group, i) => (
+            <View key={group.key} style={styles.group} testID="finding-group">
+              <Text variant="label" accessibilityRole="header" style={styles.groupHead}>
+                {i === 0 || groups[i - 1].building !== group.building ? `${group.building} · ` : ''}
+                {group.place} ({group.rows.length})
+              </Text>
+              {group.rows.map((row) => (
+                <FindingRow key={row.deficiency.id} row={row} today={today} selected={selected?.deficiency.id === row.deficiency.id} onOpen={() => open(row.deficiency.id)} />
+              ))}
+            </View>
           ))}
         </View>
       )}
@@ -144,7 +154,9 @@ const styles = StyleSheet.create({
   list: { gap: space.md },
   summary: { flexDirection: 'row', alignItems: 'center', gap: space.sm },
   summaryText: { flex: 1 },
-  rows: { gap: space.sm },
+  rows: { gap: space.lg },
+  group: { gap: space.sm },
+  groupHead: { borderBottomWidth: 1, borderBottomColor: colours.ruleStrong, paddingBottom: 2 },
   panes: { flex: 1, flexDirection: 'row', backgroundColor: colours.paper },
   listPane: { width: 440, flexGrow: 0, flexShrink: 0, borderRightWidth: 1, borderRightColor: colours.rule },
   detailPane: { flex: 1 },

@@ -11,9 +11,9 @@ import { DEFICIENCY_STATUSES, PRIORITIES, PRIORITY_LABELS, STATUS_LABELS, type D
 import { daysBetween, dueLine, whereText } from './deficiency-format';
 import { StatusWord } from './deficiency-parts';
 import { ChoiceField } from '@/components/ui/fields';
-import { PRIORITY_COLOURS, PriorityChip } from './priority-chip';
+import { PriorityChip, PriorityMark } from './priority-chip';
 import { Text } from '@/components/ui/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+import { colours, MIN_TOUCH, space } from '@/components/ui/theme';
 
 export type StatusFilter = 'outstanding' | 'all' | DeficiencyStatus;
 export type DueFilter = 'all' | 'overdue' | 'soon';
@@ -49,6 +49,40 @@ export function applyFilters(rows: readonly DeficiencyRow[], f: FindingFilters, 
   return { shown, counts };
 }
 
+/** Findings where they are walked to: one group per building and panel (building-wide ones apart). */
+export interface PlaceGroup {
+  key: string;
+  building: string;
+  /** "Panel LA", or "Building-wide" for a finding on no panel */
+  place: string;
+  rows: DeficiencyRow[];
+}
+
+/**
+ * The shown rows by building, then panel. Rows come most urgent first, so a group sits where its
+ * most urgent finding would: the panel to go to first comes first.
+ */
+export function groupByPlace(rows: readonly DeficiencyRow[]): PlaceGroup[] {
+  const groups = new Map<string, PlaceGroup>();
+  for (const row of rows) {
+    const d = row.deficiency;
+    const key = `${d.buildingId}/${d.panelId ?? ''}`;
+    let group = groups.get(key);
+    if (!group) {
+      const panel = d.panelId ? row.view.panel(d.panelId) : null;
+      group = {
+        key,
+        building: row.view.building.name,
+        place: d.panelId ? `Panel ${panel?.tag ?? '(not on this device)'}` : 'Building-wide',
+        rows: [],
+      };
+      groups.set(key, group);
+    }
+    group.rows.push(row);
+  }
+  return [...groups.values()];
+}
+
 const STATUS_FILTER_WORDS: Record<StatusFilter, string> = {
   outstanding: 'Outstanding',
   ...STATUS_LABELS,
@@ -68,7 +102,7 @@ export function filterSummary(f: FindingFilters, buildingName: (id: string) => s
     .join(' · ');
 }
 
-/** The counts of each priority; each one filters by it (tap again for every priority). */
+/** The counts of each priority as one compact line; each count filters by it (tap again for all). */
 export function PriorityCounts({ counts, value, onChange }: { counts: Record<Priority, number>; value: Priority | null; onChange: (p: Priority | null) => void }) {
   return (
     <View style={styles.counts} accessibilityRole="radiogroup" accessibilityLabel="Filter by priority" testID="priority-counts">
@@ -81,16 +115,12 @@ export function PriorityCounts({ counts, value, onChange }: { counts: Record<Pri
             aria-checked={selected}
             accessibilityLabel={`${PRIORITY_LABELS[p]}: ${counts[p]}`}
             onPress={() => onChange(selected ? null : p)}
-            style={({ pressed }) => [styles.count, { borderColor: PRIORITY_COLOURS[p] }, selected && styles.countSelected, pressed && styles.pressed]}
+            style={({ pressed }) => [styles.count, selected && styles.countSelected, pressed && styles.pressed]}
             testID={`count-p${p}`}
           >
-            <Text variant="title" tone={selected ? 'paper' : 'ink'}>
-              {counts[p]}
-            </Text>
-            <Text variant="label" tone={selected ? 'paper' : 'ink'}>
-              {selected ? '● ' : ''}
-              {PRIORITY_LABELS[p]}
-            </Text>
+            <PriorityMark priority={p} />
+            <Text variant="strong">{counts[p]}</Text>
+            <Text variant="small">{PRIORITY_LABELS[p]}</Text>
           </Pressable>
         );
       })}
@@ -143,7 +173,7 @@ export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRo
       accessibilityLabel={`${PRIORITY_LABELS[d.priority]}: ${d.title}. ${STATUS_LABELS[d.status]}, ${due.text}`}
       aria-current={selected ? true : undefined}
       onPress={onOpen}
-      style={[styles.row, { borderLeftColor: PRIORITY_COLOURS[d.priority] }, selected && styles.rowSelected]}
+      style={[styles.row, selected && styles.rowSelected]}
       testID={`finding-${d.id}`}
     >
       <View style={styles.rowTop}>
@@ -170,26 +200,24 @@ export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRo
 }
 
 const styles = StyleSheet.create({
-  counts: { flexDirection: 'row', gap: space.sm },
+  counts: { flexDirection: 'row', flexWrap: 'wrap', columnGap: space.md, rowGap: space.xs },
   count: {
-    flex: 1,
-    minHeight: MIN_TOUCH + 16,
-    borderWidth: 2,
-    borderRadius: radii.md,
-    backgroundColor: colours.card,
+    minHeight: MIN_TOUCH,
+    flexDirection: 'row',
     alignItems: 'center',
-    justifyContent: 'center',
-    paddingVertical: space.xs,
-    paddingHorizontal: 2,
+    gap: space.xs,
+    paddingHorizontal: space.xs,
+    borderBottomWidth: 3,
+    borderBottomColor: 'transparent',
   },
-  countSelected: { backgroundColor: colours.ink },
+  // chosen: underlined, like a word picked out on the line (and aria-checked for a screen reader)
+  countSelected: { borderBottomColor: colours.ink },
   filters: { gap: space.md },
   row: {
     minHeight: MIN_TOUCH,
-    borderLeftWidth: 6,
     gap: space.xs,
   },
-  rowSelected: { borderColor: colours.copper, borderWidth: 2, borderLeftWidth: 6, backgroundColor: colours.copperSoft },
+  rowSelected: { borderColor: colours.copper, borderWidth: 2, backgroundColor: colours.copperSoft },
   rowTop: { flexDirection: 'row', flexWrap: 'wrap', alignItems: 'center', gap: space.sm },
   pressed: { opacity: 0.75 },
 });

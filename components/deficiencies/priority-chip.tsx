@@ -1,27 +1,27 @@
 /**
- * A deficiency's priority as a chip: always the word ("P1 now") with the priority's colour as a
- * mark and an edge — never the colour alone (DESIGN.md §6). `null`: no priority (e.g. a reading
- * that found nothing to raise).
+ * A deficiency's priority: a mark of four bars, as many filled as the priority is urgent (P1 all
+ * four, P4 one), beside its words ("P1 now"). Shape and count, not hue, tell them apart, so the mark
+ * survives colour blindness, a dim room and a black-and-white printout (the report draws the same
+ * bars, server/services/pdf/report.ts). `null`: no priority (a reading that found nothing to raise).
  */
 import { StyleSheet, View } from 'react-native';
-import { PRIORITY_LABELS, type Priority } from '@/shared/records';
+import { PRIORITY_BARS, PRIORITY_LABELS, type Priority } from '@/shared/records';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
 
-export const PRIORITY_COLOURS: Record<Priority, string> = {
-  1: colours.p1,
-  2: colours.p2,
-  3: colours.p3,
-  4: colours.p4,
-};
+const BAR_HEIGHTS = [6, 9, 12, 15] as const;
 
-/** Light tints of the priority colours, for the chip's ground (text stays ink for contrast). */
-const PRIORITY_TINTS: Record<Priority, string> = {
-  1: '#F7E0DE',
-  2: '#FBEBD3',
-  3: '#DDEAF2',
-  4: '#E4EDDD',
-};
+/** The four bars alone (the words sit beside it wherever it is used). */
+export function PriorityMark({ priority }: { priority: Priority }) {
+  const filled = PRIORITY_BARS[priority];
+  return (
+    <View style={styles.bars} aria-hidden testID={`priority-mark-${priority}`}>
+      {BAR_HEIGHTS.map((h, i) => (
+        <View key={h} style={[styles.bar, { height: h }, i < filled ? styles.barFilled : styles.barEmpty]} />
+      ))}
+    </View>
+  );
+}
 
 export function PriorityChip({ priority, size = 'normal' }: { priority: Priority | null; size?: 'normal' | 'small' }) {
   if (priority === null) {
@@ -33,14 +33,13 @@ export function PriorityChip({ priority, size = 'normal' }: { priority: Priority
       </View>
     );
   }
-  const colour = PRIORITY_COLOURS[priority];
   return (
     <View
-      style={[styles.chip, { borderColor: colour, backgroundColor: PRIORITY_TINTS[priority] }]}
+      style={[styles.chip, priority === 1 && styles.urgent]}
       accessibilityLabel={`Priority ${PRIORITY_LABELS[priority]}`}
       testID={`priority-chip-${priority}`}
     >
-      <View style={[styles.mark, { backgroundColor: colour }]} />
+      <PriorityMark priority={priority} />
       <Text variant="label" style={size === 'small' ? styles.smallText : undefined}>
         {PRIORITY_LABELS[priority]}
       </Text>
@@ -54,12 +53,19 @@ const styles = StyleSheet.create({
     alignItems: 'center',
     alignSelf: 'flex-start',
     gap: space.xs + 2,
-    borderWidth: 1.5,
+    borderWidth: 1,
+    borderColor: colours.ruleStrong,
+    backgroundColor: colours.card,
     borderRadius: radii.sm,
     paddingHorizontal: space.sm,
     paddingVertical: 2,
   },
+  // "now" gets a heavier edge as well as its four bars
+  urgent: { borderWidth: 2, borderColor: colours.ink },
   none: { borderColor: colours.rule, backgroundColor: colours.card },
-  mark: { width: 8, height: 8, borderRadius: 4 },
+  bars: { flexDirection: 'row', alignItems: 'flex-end', gap: 2, height: 15 },
+  bar: { width: 4, borderRadius: 1, borderWidth: 1, borderColor: colours.ink },
+  barFilled: { backgroundColor: colours.ink },
+  barEmpty: { backgroundColor: 'transparent' },
   smallText: { fontSize: 12, lineHeight: 16 },
 });

@@ -7,7 +7,7 @@ import { StyleSheet, View } from 'react-native';
 import { Card, PressableCard } from '@/components/ui/card';
 import { PRIORITY_LABELS, VISUAL_CHECKS, VISUAL_CHECK_KEYS, type Reading, type VisualCheck } from '@/shared/records';
 import { Button } from '@/components/ui/button';
-import { PRIORITY_COLOURS } from '@/components/deficiencies/priority-chip';
+import { PriorityMark } from '@/components/deficiencies/priority-chip';
 import { Text } from '@/components/ui/text';
 import { colours, MIN_TOUCH, space } from '@/components/ui/theme';
 
@@ -61,7 +61,7 @@ export function InspectionChecklist({
             <View style={styles.text}>
               <Text variant={ticked ? 'strong' : 'body'}>{label}</Text>
               <View style={styles.meta}>
-                <View style={[styles.dot, { backgroundColor: PRIORITY_COLOURS[priority] }]} />
+                <PriorityMark priority={priority} />
                 <Text variant="small" tone="soft">
                   {PRIORITY_LABELS[priority]}
                   {ticked && reading && raisedFor.has(reading.id) ? ' · deficiency raised' : ''}
@@ -118,5 +118,4 @@ const styles = StyleSheet.create({
   itemTicked: { borderColor: colours.copper, backgroundColor: colours.copperSoft },
   text: { flex: 1, gap: 2 },
   meta: { flexDirection: 'row', alignItems: 'center', gap: space.xs },
-  dot: { width: 8, height: 8, borderRadius: 4 },
 });

@@ -2,8 +2,6 @@ import { StyleSheet, View } from 'react-native';
 import { circuitWarnings, occupiedPositions, panelLayout, phaseOf, positionClash, type CircuitWarning } from '@/shared/calc';
 import {
   BREAKER_TYPES,
-  CONDUCTOR_SIZES,
-  conductorSizeLabel,
   LOAD_KINDS,
   SYSTEM_INFO,
   type BreakerType,
@@ -15,9 +13,9 @@ import {
 } from '@/shared/domain';
 import { circuitCreateBody, fieldErrors, type Circuit, type CircuitFields, type Panel } from '@/shared/schemas';
 import { BandPicker } from './band-picker';
+import { ConductorSizePicker } from './conductor-size-picker';
 import { Button } from '@/components/ui/button';
-import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-format';
-import { ChoiceField, FieldRow, FormProblems, ReadOnlyField, TextField, ToggleField } from '@/components/ui/fields';
+import { ChoiceField, FieldRow, FormProblems, TextField, ToggleField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -258,14 +256,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
             />
           </FieldRow>
           <ToggleField label="Continuous load (3 h or more)" {...field('continuous')} />
-          <ChoiceField
-            label="Conductor size"
-            choices={[
-              { value: null, label: 'Not recorded' },
-              ...CONDUCTOR_SIZES.map((s) => ({ value: s, label: conductorSizeLabel(s) })),
-            ]}
-            {...field('conductorSize')}
-          />
+          <ConductorSizePicker {...field('conductorSize')} />
           <ChoiceField
             label="Conductor material"
             choices={[
@@ -306,7 +297,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
   );
 }
 
-function CircuitWarningsBox({ warnings }: { warnings: CircuitWarning[] }) {
+export function CircuitWarningsBox({ warnings }: { warnings: CircuitWarning[] }) {
   if (warnings.length === 0) return null;
   return (
     <View style={styles.warnings} accessibilityRole="alert" testID="circuit-warnings">
@@ -314,25 +305,6 @@ function CircuitWarningsBox({ warnings }: { warnings: CircuitWarning[] }) {
       {warnings.map((w) => (
         <Text key={w.code} variant="small">• {w.message}</Text>
       ))}
-    </View>
-  );
-}
-
-/** What an owner or inspector sees: the same facts and checks, no controls. */
-export function CircuitDetails({ circuit, panel }: { circuit: Circuit; panel: Panel }) {
-  return (
-    <View style={styles.form}>
-      <CircuitWarningsBox warnings={circuitWarnings(circuit, panel)} />
-      <View>
-      <ReadOnlyField label="Directory" value={directoryText(circuit)} />
-      <ReadOnlyField label="Position" value={`${circuit.position}${circuit.poles > 1 ? ` (${circuit.poles} poles)` : ''}`} />
-      <ReadOnlyField label="Breaker" value={circuit.status === 'space' ? 'none (space)' : `${breakerLabel(circuit)} ${BREAKER_TYPE_LABELS[circuit.breakerType]}`} />
-      <ReadOnlyField label="Status" value={STATUS_LABELS[circuit.status]} />
-      <ReadOnlyField label="Load" value={[LOAD_KIND_LABELS[circuit.loadKind], vaLabel(circuit.loadVA), circuit.continuous ? 'continuous' : null].filter(Boolean).join(' · ')} />
-      <ReadOnlyField label="Conductor" value={[conductorLabel(circuit), circuit.insulationTempC ? `${circuit.insulationTempC} °C` : null, circuit.lengthFt ? `${circuit.lengthFt} ft one way` : null].filter(Boolean).join(' · ')} />
-      <ReadOnlyField label="Handle lock" value={circuit.handleLock ? 'yes' : 'no'} />
-      <ReadOnlyField label="Notes" value={circuit.notes} />
-      </View>
     </View>
   );
 }

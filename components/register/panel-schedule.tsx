@@ -81,7 +81,7 @@ function WarningLine({ warnings, align }: { warnings: CircuitWarning[] | undefin
   const more = warnings.length > 1 ? ` (+${warnings.length - 1} more)` : '';
   return (
     <View style={[styles.warning, align === 'right' && styles.selfEnd]} testID="circuit-warning">
-      <Text variant="small" numberOfLines={2} style={align === 'right' && styles.textRight}>
+      <Text variant="small" style={align === 'right' && styles.textRight}>
         ⚠ {warnings[0].message}
         {more}
       </Text>
@@ -102,11 +102,11 @@ function CircuitSummary({
   const muted = circuit.status !== 'in-use';
   return (
     <View style={[styles.summary, align === 'right' && styles.alignRight]}>
-      <Text variant="strong" tone={muted ? 'soft' : 'ink'} numberOfLines={2} style={align === 'right' && styles.textRight}>
+      <Text variant="strong" tone={muted ? 'soft' : 'ink'} style={align === 'right' && styles.textRight}>
         {directoryText(circuit)}
       </Text>
       {meta ? (
-        <Text variant="small" tone="soft" numberOfLines={1}>
+        <Text variant="small" tone="soft" style={align === 'right' && styles.textRight}>
           {meta}
         </Text>
       ) : null}
@@ -149,7 +149,7 @@ function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }:
                 <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} />
               </>
             ) : continues ? (
-              <Text variant="small" tone="soft" style={styles.flex} numberOfLines={1}>
+              <Text variant="small" tone="soft" style={styles.flex}>
                 ↳ pole {(position - continues.position) / 2 + 1} of {continues.poles} · breaker at {continues.position}
               </Text>
             ) : (
@@ -164,73 +164,92 @@ function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }:
   );
 }
 
-function WideColumn({ side, positions, warnings, canEdit, onOpenCircuit, onAddAt }: Laid & { side: 'odd' | 'even' }) {
-  const mine = positions.filter((p) => (p.position % 2 === 1) === (side === 'odd'));
-  const right = side === 'even';
+/**
+ * Rows (odd and even position side by side) that must stay together because a multi-pole breaker
+ * spans them; every other row is a group of its own. Each group is laid out as one flex row, so a
+ * row is as tall as its taller side and never a fixed height that long text could spill out of.
+ */
+function rowGroups(positions: Position[]): Position[][][] {
+  const rows: Position[][] = [];
+  for (const p of positions) {
+    const r = Math.floor((p.position - 1) / 2);
+    (rows[r] ??= []).push(p);
+  }
+  const groups: Position[][][] = [];
+  let reach = -1;
+  rows.forEach((row, r) => {
+    if (r > reach) groups.push([]);
+    groups[groups.length - 1].push(row);
+    for (const p of row) if (p.starts) reach = Math.max(reach, r + p.starts.poles - 1);
+  });
+  return groups;
+}
+
+function WideCell({ place, right, warnings, canEdit, onOpenCircuit, onAddAt }: Laid & { place: Position; right: boolean }) {
+  const { position, starts } = place;
+  const onPress = starts ? () => onOpenCircuit(starts) : canEdit ? () => onAddAt(position) : undefined;
+  const positionsText = starts ? Array.from({ length: starts.poles }, (_, i) => position + 2 * i) : [position];
   return (
-    <View style={styles.wideColumn}>
-      {mine.map(({ position, starts, continues }) => {
-        if (continues) return null;
-        const height = ROW_HEIGHT * (starts?.poles ?? 1);
-        const onPress = starts ? () => onOpenCircuit(starts) : canEdit ? () => onAddAt(position) : undefined;
-        const positionsText = starts
-          ? Array.from({ length: starts.poles }, (_, i) => position + 2 * i)
-          : [position];
-        return (
-          <Pressable
-            key={position}
-            testID={`position-${position}`}
-            accessibilityRole={onPress ? 'button' : undefined}
-            accessibilityLabel={`Position ${positionsText.join(', ')}${starts ? `, ${directoryText(starts)}` : ', empty'}`}
-            onPress={onPress}
-            disabled={!onPress}
-            style={({ pressed }) => [
-              styles.wideCell,
-              { height, flexDirection: right ? 'row' : 'row-reverse' },
-              starts?.status === 'space' && styles.spaceRow,
-              starts?.status === 'spare' && styles.spareRow,
-              !starts && styles.emptyCell,
-              pressed && styles.pressed,
-            ]}
-          >
-            <View style={styles.widePositions}>
-              {positionsText.map((p) => (
-                <View key={p} style={styles.widePosition}>
-                  <Text variant="readingBold">{p}</Text>
-                </View>
-              ))}
-            </View>
-            {starts && starts.poles > 1 && <View style={styles.tie} accessibilityLabel="multi-pole tie" />}
-            <View style={[styles.breaker, styles.wideBreaker]}>
-              <Text variant="reading">{starts ? breakerLabel(starts) : ''}</Text>
-            </View>
-            {starts ? (
-              <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} align={right ? 'left' : 'right'} />
-            ) : (
-              <Text variant="small" tone="faint" style={[styles.flex, !right && styles.textRight]}>
-                Not recorded
-              </Text>
-            )}
-          </Pressable>
-        );
-      })}
-    </View>
+    <Pressable
+      testID={`position-${position}`}
+      accessibilityRole={onPress ? 'button' : undefined}
+      accessibilityLabel={`Position ${positionsText.join(', ')}${starts ? `, ${directoryText(starts)}` : ', empty'}`}
+      onPress={onPress}
+      disabled={!onPress}
+      style={({ pressed }) => [
+        styles.wideCell,
+        // a cell takes its share of the group (one row per pole) and more when its text needs it
+        { flexGrow: starts?.poles ?? 1, minHeight: ROW_HEIGHT * (starts?.poles ?? 1), flexDirection: right ? 'row' : 'row-reverse' },
+        starts?.status === 'space' && styles.spaceRow,
+        starts?.status === 'spare' && styles.spareRow,
+        !starts && styles.emptyCell,
+        pressed && styles.pressed,
+      ]}
+    >
+      <View style={styles.widePositions}>
+        {positionsText.map((p) => (
+          <View key={p} style={styles.widePosition}>
+            <Text variant="readingBold">{p}</Text>
+          </View>
+        ))}
+      </View>
+      {starts && starts.poles > 1 && <View style={styles.tie} accessibilityLabel="multi-pole tie" />}
+      <View style={[styles.breaker, styles.wideBreaker]}>
+        <Text variant="reading">{starts ? breakerLabel(starts) : ''}</Text>
+      </View>
+      {starts ? (
+        <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} align={right ? 'left' : 'right'} />
+      ) : (
+        <Text variant="small" tone="faint" style={[styles.flex, !right && styles.textRight]}>
+          Not recorded
+        </Text>
+      )}
+    </Pressable>
   );
 }
 
 function WideSchedule(props: Laid) {
-  const rows = props.positions.filter((p) => p.position % 2 === 1);
+  const groups = rowGroups(props.positions);
   return (
     <View style={styles.wide} testID="schedule-wide">
-      <WideColumn {...props} side="odd" />
-      <View style={styles.spine} accessibilityLabel="bus phases">
-        {rows.map((p) => (
-          <View key={p.position} style={[styles.spineCell, { backgroundColor: phaseTint[p.phase] }]}>
-            <Text variant="readingBold">{p.phase}</Text>
+      {groups.map((group) => {
+        const cells = group.flat();
+        const side = (odd: boolean) =>
+          cells.filter((p) => p.position % 2 === 1 === odd && !p.continues).map((p) => <WideCell key={p.position} {...props} place={p} right={!odd} />);
+        return (
+          <View key={group[0][0].position} style={styles.wideGroup}>
+            <View style={styles.wideColumn}>{side(true)}</View>
+            <View style={styles.spine} accessibilityLabel="bus phases">
+              {group.map((row) => (
+                <View key={row[0].position} style={[styles.spineCell, { backgroundColor: phaseTint[row[0].phase] }]}>
+                  <Text variant="readingBold">{row[0].phase}</Text>
+                </View>
+              ))}
+            </View>
+            <View style={styles.wideColumn}>{side(false)}</View>
           </View>
-        ))}
-      </View>
-      <WideColumn {...props} side="even" />
+        );
+      })}
     </View>
   );
 }
@@ -269,7 +288,7 @@ const styles = StyleSheet.create({
     borderRadius: radii.sm,
     alignItems: 'center',
   },
-  summary: { flex: 1, gap: 1 },
+  summary: { flex: 1, minWidth: 0, gap: 1 },
   alignRight: { alignItems: 'flex-end' },
   textRight: { textAlign: 'right' },
   warning: {
@@ -282,20 +301,19 @@ const styles = StyleSheet.create({
   },
   selfEnd: { alignSelf: 'flex-end' },
   wide: {
-    flexDirection: 'row',
     borderWidth: 2,
     borderColor: colours.ink,
     borderRadius: radii.md,
     backgroundColor: colours.card,
     overflow: 'hidden',
   },
-  wideColumn: { flex: 1 },
+  wideGroup: { flexDirection: 'row', borderBottomWidth: StyleSheet.hairlineWidth, borderBottomColor: colours.rule },
+  wideColumn: { flex: 1, minWidth: 0 },
   wideCell: {
     alignItems: 'center',
     gap: space.sm,
     paddingHorizontal: space.sm,
-    borderBottomWidth: StyleSheet.hairlineWidth,
-    borderBottomColor: colours.rule,
+    paddingVertical: space.xs,
   },
   emptyCell: { backgroundColor: '#FCFBF9' },
   widePositions: { alignSelf: 'stretch', justifyContent: 'space-around', width: 30 },
@@ -304,10 +322,9 @@ const styles = StyleSheet.create({
   wideBreaker: { minWidth: 80 },
   spine: { width: 36, borderLeftWidth: 2, borderRightWidth: 2, borderColor: colours.ink },
   spineCell: {
-    height: ROW_HEIGHT,
+    flexGrow: 1,
+    minHeight: ROW_HEIGHT,
     alignItems: 'center',
     justifyContent: 'center',
-    borderBottomWidth: StyleSheet.hairlineWidth,
-    borderBottomColor: colours.rule,
   },
 });

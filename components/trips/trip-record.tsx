@@ -1,15 +1,16 @@
 /**
  * A circuit's record, on the circuit screen: the recorded trips, the thermal readings at its
- * terminations and its torque record side by side (from 1024 px), what they say together
+ * terminations and its torque checks as one timeline, newest first, each with its verdict; what they say together
  * (nuisanceTripFindings: trips well below the rating with a hot or loose termination point at the
  * termination, not the breaker), its other readings and its open deficiencies.
  */
 import { useRouter } from 'expo-router';
-import { StyleSheet, useWindowDimensions, View } from 'react-native';
+import { useState } from 'react';
+import { StyleSheet, View } from 'react-native';
 import { Card } from '@/components/ui/card';
 import { useCircuitRecord, type AssessedReading } from '@/hooks/use-records';
 import type { BuildingView } from '@/hooks/building-view';
-import type { NuisanceTripFindings } from '@/shared/calc';
+import { NUISANCE_TRIP_LOAD_FRACTION, type NuisanceTripFindings } from '@/shared/calc';
 import { isOutstanding, may, todayISO } from '@/shared/deficiency';
 import { THERMAL_COMPONENT_LABELS, type TripEvent } from '@/shared/records';
 import type { Circuit } from '@/shared/schemas';
@@ -19,90 +20,82 @@ import { RowLink, Section, StatusWord } from '@/components/deficiencies/deficien
 import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Text } from '@/components/ui/text';
-import { colours, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
+import { colours, space } from '@/components/ui/theme';
 
-const RECENT = 5;
+/** Entries shown before "Show older". */
+const RECENT = 8;
+
+/** One dated line of the record: a trip or a reading, with what to sort it by. */
+interface Entry {
+  key: string;
+  /** ISO date or date-time: trips carry their time, readings their inspection's date */
+  at: string;
+  node: React.ReactNode;
+}
 
 export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panelId: string }) {
   const router = useRouter();
-  const { width } = useWindowDimensions();
+  const [showAll, setShowAll] = useState(false);
   const record = useCircuitRecord(circuitId).data;
   if (!record) return null;
   const { circuit, trips, readings, findings, deficiencies, view } = record;
   const role = view.building.role;
-  const wide = width >= WIDE_MIN_WIDTH;
-  const thermal = readings.filter((r) => r.reading.kind === 'thermal');
-  const torque = readings.filter((r) => r.reading.kind === 'torque');
-  const other = readings.filter((r) => r.reading.kind === 'trip' || r.reading.kind === 'visual');
   const outstanding = deficiencies.filter((d) => isOutstanding(d.status)).sort((a, b) => a.dueOn.localeCompare(b.dueOn) || a.priority - b.priority);
   const closed = deficiencies.length - outstanding.length;
   const today = todayISO();
   const openDeficiency = (id: string) => router.push({ pathname: '/deficiencies/[deficiencyId]', params: { deficiencyId: id } });
+  // trips, thermal, torque and the other readings as one story, newest first
+  const entries: Entry[] = [
+    ...trips.map((t) => ({ key: `trip-${t.id}`, at: t.occurredAt, node: <TripRow key={t.id} trip={t} ratingA={circuit.ratingA} /> })),
+    ...readings.map((r) => ({
+      key: `reading-${r.reading.id}`,
+      at: view.inspection(r.reading.inspectionId)?.performedOn ?? '',
+      node: <ReadingRow key={r.reading.id} assessed={r} view={view} />,
+    })),
+  ].sort((a, b) => b.at.localeCompare(a.at));
+  const shown = showAll ? entries : entries.slice(0, RECENT);
 
   return (
     <View style={styles.wrap} testID="circuit-record">
-      <View style={styles.rule} />
       <Text variant="heading" accessibilityRole="header">
         Record
       </Text>
       <Text variant="small" tone="soft">
-        Trips, thermal readings at the terminations and torque checks of this circuit, side by side: a breaker that trips well below its rating is often a loose termination heating it.
+        Trips, thermal readings at the terminations and torque checks, newest first: a breaker that trips well below its rating is often a loose termination heating it.
       </Text>
 
       <TripFindingsBox findings={findings} circuit={circuit} tripCount={trips.length} />
 
-      <View style={[styles.columns, wide && styles.columnsWide]} testID="record-columns">
-        <View style={[styles.column, wide && styles.columnWide]}>
-          <Section
-            title="Recorded trips"
-            testID="record-trips"
-          >
-            {role !== 'owner' && (
-              <Button
-                label="Record a trip"
-                tone="secondary"
-                onPress={() => router.push({ pathname: '/trips/new', params: { circuitId, panelId } })}
-                testID="record-trip"
-              />
-            )}
-            {trips.length === 0 ? (
-              <Text tone="soft">No trips recorded. When this breaker trips unexpectedly, record when, the load and what was happening.</Text>
-            ) : (
-              <>
-                {trips.slice(0, RECENT).map((t) => (
-                  <TripRow key={t.id} trip={t} ratingA={circuit.ratingA} />
-                ))}
-                {trips.length > RECENT && <Text variant="small" tone="soft">+ {trips.length - RECENT} older</Text>}
-              </>
-            )}
-          </Section>
-        </View>
-        <View style={[styles.column, wide && styles.columnWide]}>
-          <Section title="Thermal at the terminations" testID="record-thermal">
-            {thermal.length === 0 ? (
-              <Text tone="soft">No thermal reading of this circuit yet. A scan of its lug under load is recorded in an inspection.</Text>
-            ) : (
-              thermal.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} view={view} />)
-            )}
-          </Section>
-        </View>
-        <View style={[styles.column, wide && styles.columnWide]}>
-          <Section title="Torque record" testID="record-torque">
-            {torque.length === 0 ? (
-              <Text tone="soft">No torque check of this circuit&apos;s terminal yet.</Text>
-            ) : (
-              torque.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} view={view} />)
-            )}
-          </Section>
-        </View>
+      {role !== 'owner' && (
+        <Button
+          label="Record a trip"
+          tone="secondary"
+          onPress={() => router.push({ pathname: '/trips/new', params: { circuitId, panelId } })}
+          testID="record-trip"
+          style={styles.start}
+        />
+      )}
+      <View style={styles.timeline} role="list" testID="record-timeline">
+        {entries.length === 0 ? (
+          <Text tone="soft">
+            Nothing recorded yet. Record a trip when this breaker trips unexpectedly; thermal scans and torque checks of its terminals are recorded in an inspection.
+          </Text>
+        ) : (
+          shown.map((e) => (
+            <View key={e.key} role="listitem">
+              {e.node}
+            </View>
+          ))
+        )}
       </View>
-
-      {other.length > 0 && (
-        <Section title="Other readings" testID="record-other">
-          {other.slice(0, RECENT).map((r) => (
-            <ReadingRow key={r.reading.id} assessed={r} view={view} />
-          ))}
-        </Section>
+      {entries.length > RECENT && (
+        <Button
+          label={showAll ? 'Show the latest only' : `Show ${entries.length - RECENT} older`}
+          tone="quiet"
+          onPress={() => setShowAll((v) => !v)}
+          testID="record-older"
+          style={styles.start}
+        />
       )}
 
       <Section title="Open deficiencies" testID="record-deficiencies">
@@ -138,31 +131,6 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
 
       <SafetyNote />
     </View>
-  );
-}
-
-/**
- * A line at the top of the editor's circuit screen, whose form is long: what the record below
- * holds, and the termination warning when there is one. Nothing when there is no record.
- */
-export function CircuitRecordSummary({ circuitId }: { circuitId: string }) {
-  const record = useCircuitRecord(circuitId).data;
-  if (!record) return null;
-  const { trips, readings, deficiencies, findings } = record;
-  const open = deficiencies.filter((d) => isOutstanding(d.status)).length;
-  if (trips.length + readings.length + open === 0) return null;
-  const parts = [
-    trips.length ? `${trips.length} recorded trip${trips.length === 1 ? '' : 's'}` : null,
-    readings.length ? `${readings.length} reading${readings.length === 1 ? '' : 's'}` : null,
-    open ? `${open} open deficienc${open === 1 ? 'y' : 'ies'}` : null,
-  ].filter(Boolean);
-  return (
-    <Card size="row" strong style={findings?.suspectTermination && styles.suspect} testID="record-summary">
-      {findings?.suspectTermination ? (
-        <Text variant="strong">⚠ Trips well below rating with a hot or loose termination: suspect the termination, not the breaker.</Text>
-      ) : null}
-      <Text variant="small">{parts.join(' · ')}: see the record below the form.</Text>
-    </Card>
   );
 }
 
@@ -227,9 +195,23 @@ function TripRow({ trip, ratingA }: { trip: TripEvent; ratingA: number | null })
       : ratingA
         ? `${trip.loadA} A (${Math.round((trip.loadA / ratingA) * 100)} % of ${ratingA} A)`
         : `${trip.loadA} A`;
+  const verdict =
+    trip.loadA === null || !ratingA
+      ? null
+      : trip.loadA < ratingA * NUISANCE_TRIP_LOAD_FRACTION
+        ? '⚠ well below the rating'
+        : 'at or near the rating';
   return (
     <Card size="row" testID="trip-row">
-      <Text variant="strong">{dateTimeWords(trip.occurredAt)}</Text>
+      <View style={styles.inline}>
+        <Text variant="label" style={styles.kind}>
+          TRIP
+        </Text>
+        <Text variant="strong" style={styles.flex}>
+          {dateTimeWords(trip.occurredAt)}
+        </Text>
+        {verdict && <Text variant="small">{verdict}</Text>}
+      </View>
       <Text variant="reading" testID="trip-load">
         {load}
       </Text>
@@ -237,6 +219,8 @@ function TripRow({ trip, ratingA }: { trip: TripEvent; ratingA: number | null })
     </Card>
   );
 }
+
+const KIND_WORDS: Record<AssessedReading['reading']['kind'], string> = { thermal: 'THERMAL', torque: 'TORQUE', trip: 'TRIP TEST', visual: 'VISUAL' };
 
 function ReadingRow({ assessed, view }: { assessed: AssessedReading; view: BuildingView }) {
   const { reading, assessment } = assessed;
@@ -252,6 +236,9 @@ function ReadingRow({ assessed, view }: { assessed: AssessedReading; view: Build
   return (
     <Card size="row" testID={`reading-${reading.kind}`}>
       <View style={styles.inline}>
+        <Text variant="label" style={styles.kind}>
+          {KIND_WORDS[reading.kind]}
+        </Text>
         <Text variant="strong" style={styles.flex}>
           {what}
         </Text>
@@ -267,11 +254,9 @@ function ReadingRow({ assessed, view }: { assessed: AssessedReading; view: Build
 
 const styles = StyleSheet.create({
   wrap: { gap: space.lg },
-  rule: { height: 1, backgroundColor: colours.rule, marginTop: space.lg },
-  columns: { gap: space.lg },
-  columnsWide: { flexDirection: 'row', alignItems: 'flex-start' },
-  column: { gap: space.sm },
-  columnWide: { flex: 1, minWidth: 0 },
+  timeline: { gap: space.sm },
+  start: { alignSelf: 'flex-start' },
+  kind: { borderWidth: 1, borderColor: colours.ruleStrong, borderRadius: 4, paddingHorizontal: space.xs },
   inline: { flexDirection: 'row', alignItems: 'center', flexWrap: 'wrap', gap: space.sm },
   flex: { flex: 1 },
   suspect: { borderColor: colours.danger, borderWidth: 2, borderLeftWidth: 8, backgroundColor: colours.dangerSoft },

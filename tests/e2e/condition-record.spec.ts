@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import sharp from 'sharp';
 import { query } from './db';
-import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanel, signIn, waitOfflineReady } from './helpers';
+import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanel, openPanelActions, signIn, waitOfflineReady } from './helpers';
 
 async function photoFile(): Promise<string> {
   const file = join(mkdtempSync(join(tmpdir(), 'ampwright-record-')), 'hot-lug.jpg');
@@ -48,6 +48,7 @@ test('offline: a P1 thermal reading raises a deficiency with a photo; after an o
   // ---- the basement: no signal from here on
   await inspectorContext.setOffline(true);
   await expectStatus(page, 'offline');
+  await openPanelActions(page);
   await page.getByTestId('inspect-panel').click();
   await page.getByTestId('field-ambient').fill('24');
   await page.getByTestId('field-load-pct').fill('70');

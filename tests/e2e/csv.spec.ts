@@ -6,11 +6,12 @@ import { expect, test, type Page } from '@playwright/test';
 import { readFile } from 'node:fs/promises';
 import Papa from 'papaparse';
 import { query } from './db';
-import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanel, signIn, waitOfflineReady } from './helpers';
+import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanel, openPanelActions, signIn, waitOfflineReady } from './helpers';
 
 const CLINIC = 'Brackenfold Family Clinic';
 
 async function exportLA(page: Page): Promise<string[][]> {
+  await openPanelActions(page);
   const download = page.waitForEvent('download');
   await page.getByTestId('csv-export').click();
   const file = await download;
@@ -114,6 +115,7 @@ test('a file with a rating that is not a standard rating shows the problem and c
 test('an owner may export but not import', async ({ page }) => {
   await signIn(page, 'owner');
   await openPanel(page, CLINIC, 'LA');
+  await openPanelActions(page);
   await expect(page.getByTestId('csv-export')).toBeVisible();
   await expect(page.getByTestId('csv-import')).toHaveCount(0);
 });

@@ -29,8 +29,10 @@ test('a circuit reloaded on its own address keeps the way back and the tab bar',
   await signIn(page, 'electrician');
   await page.goto(`/panels/${await panelId('LA')}`);
   await page.getByTestId('position-3').click();
-  await expect(page.getByTestId('field-description')).toBeVisible();
+  await expect(page.getByTestId('circuit-record')).toBeVisible();
   await page.reload();
+  await expect(page.getByTestId('circuit-record')).toBeVisible();
+  await page.getByTestId('edit-circuit').click();
   await expect(page.getByTestId('field-description')).toBeVisible();
   await expect(page.getByRole('tab', { name: /Sync/ })).toBeVisible();
   await expect(page.getByRole('link', { name: /, back$/ }).filter({ visible: true }).first()).toBeVisible();

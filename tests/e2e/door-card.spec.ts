@@ -8,7 +8,7 @@ import { expect, test } from '@playwright/test';
 import sharp from 'sharp';
 import { CARD_CIRCUITS, renderCard } from '../unit/door-card-image';
 import { query } from './db';
-import { ARTIFACTS, expectQueueEmpty, expectStatus, signIn, waitOfflineReady } from './helpers';
+import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanelActions, signIn, waitOfflineReady } from './helpers';
 
 const CLINIC = 'Brackenfold Family Clinic';
 
@@ -33,6 +33,7 @@ test('a typed card of a 42-space panel is read offline into a draft, reviewed an
   await waitOfflineReady(page);
   await page.getByRole('button', { name: `Building ${CLINIC}` }).click();
   await page.getByTestId(`panel-${tag}`).click();
+  await openPanelActions(page);
   await expect(page.getByTestId('door-card-open')).toBeVisible();
 
   await context.setOffline(true);

@@ -22,9 +22,22 @@ export async function waitOfflineReady(page: Page) {
   await expect(page.locator('html[data-offline-ready="true"]')).toHaveCount(1, { timeout: 60_000 });
 }
 
+/** The panel screen's actions sit behind one "Panel actions" button: open it (once). */
+export async function openPanelActions(page: Page) {
+  const toggle = page.getByTestId('panel-actions');
+  if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click();
+  await expect(page.getByTestId('panel-actions-menu')).toBeVisible();
+}
+
+/** Open a circuit from the schedule and its form ("Edit circuit" on its record). */
+export async function openCircuitForm(page: Page, position: number) {
+  await page.getByTestId(`position-${position}`).click();
+  await page.getByTestId('edit-circuit').click();
+}
+
 /** Open a circuit from the schedule, change its description, save, and be back on the schedule. */
 export async function editDescription(page: Page, position: number, description: string) {
-  await page.getByTestId(`position-${position}`).click();
+  await openCircuitForm(page, position);
   await page.getByTestId('field-description').fill(description);
   await page.getByTestId('save-circuit').click();
   await expect(page.getByTestId(`position-${position}`)).toContainText(description);

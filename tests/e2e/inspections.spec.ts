@@ -4,7 +4,7 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import { query } from './db';
-import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanel, signIn, waitOfflineReady } from './helpers';
+import { ARTIFACTS, expectQueueEmpty, expectStatus, openPanel, openPanelActions, signIn, waitOfflineReady } from './helpers';
 
 /** The browser's confirm dialogs (lib/confirm.web.ts) are answered yes; their text is kept. */
 function acceptDialogs(page: Page): string[] {
@@ -27,6 +27,7 @@ test('an inspector surveys panel LA: a hot lug is P1 now, a loose lug is loose, 
   await openPanel(page, 'Brackenfold Family Clinic', 'LA');
 
   // ---- a new thermal survey, opened from the panel (so LA is already chosen)
+  await openPanelActions(page);
   await page.getByTestId('inspect-panel').click();
   await expect(page.getByTestId('cover-panel-LA')).toHaveAttribute('aria-checked', 'true');
   await page.getByTestId('field-ambient').fill('40');
@@ -172,6 +173,7 @@ test('an owner reads inspections but is offered no way to start one', async ({ p
   await expect(page.getByTestId('new-inspection')).toHaveCount(0);
   await page.getByTestId('panel-LA').click();
   await expect(page.getByTestId('position-1')).toBeVisible();
+  await openPanelActions(page);
   await expect(page.getByTestId('inspect-panel')).toHaveCount(0);
 });
 
@@ -183,6 +185,7 @@ test('an electrician records a torque audit with no signal; it arrives when the 
   await context.setOffline(true);
   await expectStatus(page, 'offline');
 
+  await openPanelActions(page);
   await page.getByTestId('inspect-panel').click();
   await page.getByRole('radio', { name: 'Kind of inspection: Torque audit' }).click();
   const note = `offline audit ${Date.now()}`;

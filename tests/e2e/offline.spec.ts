@@ -4,7 +4,7 @@
  */
 import { expect, test, type Browser, type BrowserContext, type Page } from '@playwright/test';
 import { query } from './db';
-import { editDescription, expectQueueEmpty, expectStatus, openPanel, signIn, waitOfflineReady } from './helpers';
+import { editDescription, expectQueueEmpty, expectStatus, openCircuitForm, openPanel, signIn, waitOfflineReady } from './helpers';
 
 async function device(browser: Browser, role: 'electrician' | 'admin' = 'electrician') {
   const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
@@ -110,7 +110,7 @@ test('a push whose reply is lost is answered "duplicate" after a reload, and app
 });
 
 async function offlineEdit(page: Page, position: number, fields: { description?: string; notes?: string }) {
-  await page.getByTestId(`position-${position}`).click();
+  await openCircuitForm(page, position);
   if (fields.description !== undefined) await page.getByTestId('field-description').fill(fields.description);
   if (fields.notes !== undefined) await page.getByLabel('Notes', { exact: true }).fill(fields.notes);
   await page.getByTestId('save-circuit').click();
@@ -207,7 +207,7 @@ test('delete against edit: the tombstone stands, the edit is kept for review, re
   const run = Date.now() % 100000;
   // A deletes position 15 online
   a.page.once('dialog', (dialog) => dialog.accept());
-  await a.page.getByTestId('position-17').click();
+  await openCircuitForm(a.page, 17);
   await a.page.getByRole('button', { name: 'Delete circuit…' }).click();
   await expect(a.page.getByTestId('position-17')).toContainText('Not recorded');
   await expectQueueEmpty(a.page);

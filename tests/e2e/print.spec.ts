@@ -4,13 +4,14 @@
  */
 import { expect, test } from '@playwright/test';
 import { query } from './db';
-import { ARTIFACTS, openPanel, signIn } from './helpers';
+import { ARTIFACTS, openPanel, openPanelActions, signIn } from './helpers';
 
 test.use({ viewport: { width: 390, height: 844 } });
 
 test('the panel screen prints the directory on the chosen paper, and says so when offline', async ({ page, context }) => {
   await signIn(page, 'owner');
   await openPanel(page, 'Brackenfold Family Clinic', 'LA');
+  await openPanelActions(page);
   await page.getByTestId('print-paper-a4').click();
   await expect(page.getByTestId('print-paper-a4')).toHaveAttribute('aria-checked', 'true');
   await page.screenshot({ path: `${ARTIFACTS}/print-directory-phone.png` });

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { ARTIFACTS, openPanel, signIn } from './helpers';
+import { ARTIFACTS, openCircuitForm, openPanel, openPanelActions, signIn } from './helpers';
 
 test.describe('sign-in', () => {
   test('names the empty fields, then says plainly when the password is wrong', async ({ page }) => {
@@ -18,7 +18,7 @@ test.describe('electrician', () => {
   test('edits a circuit description and finds it after a reload', async ({ page }) => {
     await signIn(page, 'electrician');
     await openPanel(page, 'Brackenfold Family Clinic', 'LA');
-    await page.getByTestId('position-19').click();
+    await openCircuitForm(page, 19);
     const description = page.getByTestId('field-description');
     await expect(description).toHaveValue('Reception desk receptacles');
     const changed = `Reception desk receptacles, north wall ${Date.now() % 100000}`;
@@ -32,7 +32,7 @@ test.describe('electrician', () => {
   test('a bad rating and a 2-pole over a neighbour are named by the form', async ({ page }) => {
     await signIn(page, 'electrician');
     await openPanel(page, 'Brackenfold Family Clinic', 'LA');
-    await page.getByTestId('position-3').click();
+    await openCircuitForm(page, 3);
     await page.getByTestId('field-rating').fill('twenty');
     await page.getByTestId('save-circuit').click();
     await expect(page.getByText('✕ must be a number of amperes')).toBeVisible();
@@ -76,9 +76,13 @@ test.describe('read-only roles', () => {
     await expect(page.getByRole('button', { name: 'Building Copperwick Lofts' })).toHaveCount(0);
     await openPanel(page, 'Brackenfold Family Clinic', 'LA');
     await expect(page.getByTestId('read-only-note')).toBeVisible();
+    await openPanelActions(page);
+    await expect(page.getByTestId('print-directory')).toBeVisible();
     await expect(page.getByTestId('edit-panel')).toHaveCount(0);
     await page.getByTestId('position-1').click();
-    await expect(page.getByText('Directory', { exact: true })).toBeVisible();
+    await expect(page.getByTestId('circuit-head')).toBeVisible();
+    await expect(page.getByTestId('circuit-breaker')).toBeVisible();
+    await expect(page.getByTestId('edit-circuit')).toHaveCount(0);
     await expect(page.getByTestId('save-circuit')).toHaveCount(0);
     await expect(page.getByTestId('field-description')).toHaveCount(0);
     await page.screenshot({ path: `${ARTIFACTS}/owner-circuit-phone.png` });
@@ -88,6 +92,7 @@ test.describe('read-only roles', () => {
     await signIn(page, 'inspector');
     await openPanel(page, 'Copperwick Lofts', 'DP-1');
     await expect(page.getByTestId('read-only-note')).toBeVisible();
+    await openPanelActions(page);
     await expect(page.getByTestId('edit-panel')).toHaveCount(0);
   });
 });

@@ -11,8 +11,11 @@ test('a conductor too small for its breaker is flagged in words, and the flag cl
   await page.screenshot({ path: `${ARTIFACTS}/warning-phone.png` });
 
   await row.click();
+  // the record opens with the warning, and the form checks it again
   await expect(page.getByTestId('circuit-warnings')).toContainText('240.4(D)');
-  await page.getByRole('radio', { name: 'Conductor size: 12 AWG' }).click();
+  await page.getByTestId('edit-circuit').click();
+  await expect(page.getByTestId('circuit-warnings')).toContainText('240.4(D)');
+  await page.getByLabel('Conductor size').selectOption('12');
   // the form re-checks as the electrician types
   await expect(page.getByTestId('circuit-warnings')).toHaveCount(0);
   await page.getByTestId('save-circuit').click();

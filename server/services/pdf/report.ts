@@ -12,10 +12,12 @@ import { PANEL_LOAD_FIGURES, SAFETY_CAUTION, panelLoad } from '../../../shared/c
 import { SYSTEM_INFO } from '../../../shared/domain';
 import {
   INSPECTION_KIND_LABELS,
+  PRIORITY_BARS,
   PRIORITY_LABELS,
   STATUS_LABELS,
   THERMAL_COMPONENT_LABELS,
   VISUAL_CHECKS,
+  type Priority,
 } from '../../../shared/records';
 import type { Actor } from '../../auth/access';
 import type { Circuit, Panel, Photo, Reading } from '../../entities';
@@ -135,6 +137,28 @@ function tagLine(doc: PDFKit.PDFDocument, word: string, colour: string, rest: st
   doc.moveDown(0.2);
 }
 
+/**
+ * A deficiency's priority as the screens show it: four bars, as many filled as it is urgent
+ * (PRIORITY_BARS), then its words — legible in black and white, with no colour to decode.
+ */
+function priorityLine(doc: PDFKit.PDFDocument, priority: Priority, rest: string): void {
+  keepTogether(doc, 16);
+  const y = doc.y;
+  const heights = [4, 6.5, 9, 11.5];
+  heights.forEach((h, i) => {
+    const x = MARGIN + i * 4.5;
+    doc.lineWidth(0.8).rect(x, y + 12 - h, 3, h);
+    if (i < PRIORITY_BARS[priority]) doc.fillAndStroke(INK, INK);
+    else doc.stroke(INK);
+  });
+  const word = PRIORITY_LABELS[priority];
+  doc.font(FONT.bold).fontSize(10).fillColor(INK).text(word, MARGIN + 22, y + 1, { lineBreak: false });
+  const w = 22 + doc.widthOfString(word) + 8;
+  doc.font(FONT.text).fontSize(10).text(rest, MARGIN + w, y + 1, { width: doc.page.width - 2 * MARGIN - w });
+  doc.x = MARGIN;
+  doc.moveDown(0.2);
+}
+
 /** The caution (shared/calc SAFETY_CAUTION) in a box with a P2-amber edge and the word "Safety". */
 function safetyBox(doc: PDFKit.PDFDocument, width: number): void {
   keepTogether(doc, 90);
@@ -209,7 +233,7 @@ export async function inspectionReportPdf(
     keepTogether(doc, 70);
     const panel = d.panelId ? panelById.get(d.panelId) : undefined;
     const circuit = d.circuitId ? circuitById.get(d.circuitId) : undefined;
-    tagLine(doc, PRIORITY_LABELS[d.priority], PRIORITY_COLOURS[d.priority], d.title);
+    priorityLine(doc, d.priority, d.title);
     const where = [panel ? `Panel ${panel.tag}` : null, circuit ? `position ${circuit.position}` : null].filter(Boolean).join(', ');
     doc.font(FONT.text).fontSize(9.5).fillColor(SOFT)
       .text([`${STATUS_LABELS[d.status]}`, `due ${d.dueOn}`, where || null, d.raisedByName ? `raised by ${d.raisedByName}` : null].filter(Boolean).join(' · '), MARGIN, doc.y, { width });

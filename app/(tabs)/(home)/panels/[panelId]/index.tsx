@@ -1,13 +1,10 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
-import { Button } from '@/components/ui/button';
-import { CsvButtons } from '@/components/csv/csv-buttons';
-import { InspectPanelButton } from '@/components/inspections/inspection-entry';
+import { PanelActions } from '@/components/register/panel-actions';
 import { PanelLoadSummary } from '@/components/register/panel-load';
 import { PanelProblems } from '@/components/register/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/register/panel-schedule';
-import { PrintDirectoryButton } from '@/components/documents/print-button';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Screen } from '@/components/ui/screen';
 import { replicaGate } from '@/components/ui/states';
@@ -57,39 +54,13 @@ export default function PanelScreen() {
               <Text variant="small" tone="faint">{[panel.maker, panel.model].filter(Boolean).join(' — ')}</Text>
             )}
           </View>
-          <InspectPanelButton role={building.role} buildingId={building.id} panelId={panel.id} />
-          {canEdit && (
-            <Button
-              label="Edit panel"
-              tone="secondary"
-              testID="edit-panel"
-              onPress={() => router.push({ pathname: '/panels/[panelId]/edit', params: { panelId } })}
-            />
-          )}
         </View>
-        <CsvButtons panelId={panelId} canImport={canEdit} />
-        {canEdit && (
-          <Button
-            label="Read a door card"
-            tone="secondary"
-            testID="door-card-open"
-            onPress={() => router.push({ pathname: '/panels/[panelId]/door-card', params: { panelId } })}
-          />
-        )}
-        <PrintDirectoryButton panelId={panelId} />
+        <PanelActions panelId={panelId} buildingId={building.id} role={building.role} canEdit={canEdit} />
         {!canEdit && (
           <View style={styles.readOnly} testID="read-only-note">
             <Text variant="small">Read only: as {building.role} you can view this schedule but not change it.</Text>
           </View>
         )}
-        <View style={styles.overview}>
-          <View style={styles.overviewItem}>
-            <PanelLoadSummary panel={panel} circuits={circuits} />
-          </View>
-          <View style={styles.overviewItem}>
-            <PanelProblems problems={problems} onOpen={openCircuit} />
-          </View>
-        </View>
         <PanelSchedule
           panel={panel}
           circuits={circuits}
@@ -100,6 +71,15 @@ export default function PanelScreen() {
             router.push({ pathname: '/panels/[panelId]/new-circuit', params: { panelId, position: String(position) } })
           }
         />
+        {/* the panel's figures after its schedule; a card about the panel as a whole sits here, one line each */}
+        <View style={styles.overview}>
+          <View style={styles.overviewItem}>
+            <PanelLoadSummary panel={panel} circuits={circuits} />
+          </View>
+          <View style={styles.overviewItem}>
+            <PanelProblems problems={problems} onOpen={openCircuit} />
+          </View>
+        </View>
         <SafetyNote />
       </Screen>
     </>
