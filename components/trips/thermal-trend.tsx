@@ -7,7 +7,10 @@
 import { useState } from 'react';
 import { StyleSheet, View, type LayoutChangeEvent } from 'react-native';
 import Svg, { Circle, Line, Path, Text as SvgText } from 'react-native-svg';
-import type { TerminationTrend } from '@/shared/thermal-trend';
+import type { AssessedReading } from '@/hooks/use-records';
+import type { BuildingView } from '@/hooks/building-view';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { terminationTrends, type TerminationTrend } from '@/shared/thermal-trend';
 import { formatTemp, fromCelsius, unitSymbol, type TemperatureUnit } from '@/shared/units';
 import { Card } from '@/components/ui/card';
 import { Text } from '@/components/ui/text';
@@ -15,6 +18,15 @@ import { colours, fonts, space } from '@/components/ui/theme';
 
 const PAD = { left: 40, right: 16, top: 18, bottom: 26 };
 const HEIGHT = 150;
+
+/** The trends of a circuit's terminations, from its record's readings (dates from their inspections). */
+export function CircuitThermalTrends({ readings, view }: { readings: readonly AssessedReading[]; view: BuildingView }) {
+  const { unit } = useTemperatureUnit();
+  const trends = terminationTrends(
+    readings.map(({ reading, assessment }) => ({ reading, assessment, takenOn: view.inspection(reading.inspectionId)?.performedOn ?? null })),
+  );
+  return <ThermalTrends trends={trends} unit={unit} />;
+}
 
 export function ThermalTrends({ trends, unit }: { trends: readonly TerminationTrend[]; unit: TemperatureUnit }) {
   if (trends.length === 0) return null;

@@ -20,6 +20,7 @@ import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Text } from '@/components/ui/text';
 import { colours, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
+import { CircuitThermalTrends } from './thermal-trend';
 
 const RECENT = 5;
 
@@ -84,6 +85,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
             ) : (
               thermal.slice(0, RECENT).map((r) => <ReadingRow key={r.reading.id} assessed={r} view={view} />)
             )}
+            <CircuitThermalTrends readings={thermal} view={view} />
           </Section>
         </View>
         <View style={[styles.column, wide && styles.columnWide]}>

@@ -20,6 +20,7 @@ import { Text } from '@/components/ui/text';
 import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
 import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { TripReadingPlot } from '@/components/trips/trip-reading-plot';
 
 /** The fields a patch may carry: the inspection, panel and kind of a reading never change. */
 function patchOf(before: ReadingFields, after: ReadingCreateBody): ReadingPatchBody {
@@ -107,6 +108,7 @@ export function ReadingForm(props: ReadingFormProps) {
           ))}
         </>
       )}
+      <TripReadingPlot reading={candidate} assessment={live.assessment} circuits={circuits} bands={bands} />
     </Card>
   );
 
