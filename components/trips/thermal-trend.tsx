@@ -45,6 +45,7 @@ function TrendCard({ trend: { label, trend }, unit }: { trend: TerminationTrend;
   return (
     <Card size="compact" testID="thermal-trend">
       <Text variant="strong">Rise across surveys · {label}</Text>
+      <Text variant="small" tone="faint">The rise each survey was judged on: raised to the reference load where the load was light.</Text>
       {points.length < 2 ? (
         <Text variant="small" tone="soft" testID="thermal-trend-one">
           One survey so far ({latest.takenOn}, ΔT {formatTemp(latest.riseC, unit, 'rise')}): the trend starts with the next.

@@ -31,7 +31,7 @@ test('the trip-test reading shows its band with the test point and its verdict i
   await expect(svg).toContainText('Current, multiples of rating');
   await expect(plot.getByTestId('band-plot-caption')).toContainText('PASS: 60 A (300 %), 14 s');
   // the same words for a screen reader
-  await expect(plot.getByRole('img')).toHaveAttribute('aria-label', /PASS: 60 A \(300 %\), 14 s/);
+  await expect(plot.getByRole('img', { name: /^Time-current band Demo 20 A/ })).toHaveAttribute('aria-label', /PASS: 60 A \(300 %\), 14 s/);
   // readable on the phone: the picture fits the screen
   const box = await svg.boundingBox();
   expect(box && box.width).toBeGreaterThan(250);
@@ -51,7 +51,8 @@ test('°F on the Me tab: the hot lug’s 22 °C rise reads 39.6 °F, and its rec
   await signIn(page, 'inspector');
   await page.getByRole('tab', { name: /Me/ }).click();
   await page.getByRole('radio', { name: 'Temperatures in: °F' }).click();
-  await expect(page.getByRole('radio', { name: 'Temperatures in: °F' })).toHaveAttribute('aria-checked', 'true');
+  // the chosen chip is marked with a dot, in words as well as colour
+  await expect(page.getByRole('radio', { name: 'Temperatures in: °F' })).toContainText('● °F');
 
   await page.getByRole('tab', { name: /Buildings/ }).click();
   await openPanel(page, 'Brackenfold Family Clinic', 'LA');
