@@ -12,6 +12,7 @@ import path from 'node:path';
 import { after, before, describe, it } from 'node:test';
 import sharp from 'sharp';
 import type request from 'supertest';
+import { DEMO_RECORD } from '../../scripts/demo-data';
 import { demoIds, startApp, type TestContext } from './context';
 
 let ctx: TestContext;
@@ -24,15 +25,16 @@ before(async () => {
   ctx = await startApp();
   const ids = await demoIds(ctx.ds);
   admin = await ctx.signIn('admin');
-  const latest = async (kind: string) =>
+  // the demo's own inspections, found by their notes: other API tests add inspections of these kinds
+  const demo = async (key: string) =>
     (
-      await ctx.ds.query(
-        `SELECT id FROM inspection WHERE building_id = $1 AND kind = $2 AND deleted_at IS NULL ORDER BY performed_on DESC LIMIT 1`,
-        [ids.clinicId, kind],
-      )
+      await ctx.ds.query(`SELECT id FROM inspection WHERE building_id = $1 AND notes = $2 AND deleted_at IS NULL LIMIT 1`, [
+        ids.clinicId,
+        DEMO_RECORD.inspections.find((i) => i.key === key)!.notes,
+      ])
     )[0].id as string;
-  tripTestId = await latest('trip-test');
-  surveyId = await latest('thermal-survey');
+  tripTestId = await demo('trip-test');
+  surveyId = await demo('survey');
 });
 after(async () => {
   await ctx.close();
