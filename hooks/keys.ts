@@ -9,4 +9,6 @@ export const keys = {
   syncLog: SYNC_LOG_KEY,
   /** the organisation's time-current band library (REST, persisted for offline judging) */
   bands: ['bands'] as const,
+  /** the user's °C/°F choice, kept on the device (hooks/use-temperature-unit.ts) */
+  temperatureUnit: (userId: string | null) => ['temperature-unit', userId] as const,
 };

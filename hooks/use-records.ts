@@ -12,6 +12,8 @@ import { EMPTY_REPLICA, recordsOf, type BuildingCopy, type RecordCopy, type Repl
 import { assessReading, terminationReadingOf, type Assessment } from '@/shared/assess';
 import { isOutstanding } from '@/shared/deficiency';
 import { nuisanceTripFindings, type TerminationReading } from '@/shared/calc';
+import type { TemperatureUnit } from '@/shared/units';
+import { useTemperatureUnit } from './use-temperature-unit';
 import {
   bandResponse,
   bandsResponse,
@@ -88,10 +90,10 @@ export interface AssessedReading {
 }
 
 /** Judge a reading against what the device holds (its circuit, panel and band). */
-export function assessOnDevice(view: BuildingView, reading: Reading, bands: readonly Band[] | undefined): Assessment {
+export function assessOnDevice(view: BuildingView, reading: Reading, bands: readonly Band[] | undefined, temperatureUnit: TemperatureUnit = 'C'): Assessment {
   const circuit = reading.circuitId ? view.circuit(reading.circuitId) : null;
   const bandId = reading.bandId ?? circuit?.bandId ?? null;
-  const context = { circuit, panel: view.panel(reading.panelId) };
+  const context = { circuit, panel: view.panel(reading.panelId), temperatureUnit };
   try {
     return assessReading(reading, { ...context, band: bandId ? bands?.find((b) => b.id === bandId) : null });
   } catch {
@@ -116,6 +118,7 @@ export function useInspections(buildingId: string) {
 /** `null` when the inspection is not on this device. */
 export function useInspection(inspectionId: string) {
   const bands = useBands().data;
+  const { unit } = useTemperatureUnit();
   return useReplica(
     useCallback(
       (r: Replica) => {
@@ -125,12 +128,12 @@ export function useInspection(inspectionId: string) {
         const readings = list(copy, 'readings')
           .filter((x) => x.inspectionId === inspectionId)
           .sort((a, b) => a.id.localeCompare(b.id))
-          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands) }));
+          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands, unit) }));
         const deficiencies = list(copy, 'deficiencies').filter((d) => d.inspectionId === inspectionId);
         const panels = inspection.panelIds.map((id) => copy.panels[id]).filter(Boolean);
         return { inspection, readings, deficiencies, panels, view: viewOf(copy) };
       },
-      [inspectionId, bands],
+      [inspectionId, bands, unit],
     ),
   );
 }
@@ -204,6 +207,7 @@ export function useDeficiency(deficiencyId: string) {
  */
 export function useCircuitRecord(circuitId: string) {
   const bands = useBands().data;
+  const { unit } = useTemperatureUnit();
   return useReplica(
     useCallback(
       (r: Replica) => {
@@ -216,7 +220,7 @@ export function useCircuitRecord(circuitId: string) {
         const readings = list(copy, 'readings')
           .filter((x) => x.circuitId === circuitId)
           .sort((a, b) => b.id.localeCompare(a.id))
-          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands) }));
+          .map((reading) => ({ reading, assessment: assessOnDevice(viewOf(copy), reading, bands, unit) }));
         // the judged rise: a test-pulse reading at its raw difference, a too-light one not at all
         const terminations: TerminationReading[] = readings.flatMap(({ reading, assessment }) => {
           const t = terminationReadingOf(reading, assessment);
@@ -232,7 +236,7 @@ export function useCircuitRecord(circuitId: string) {
         const deficiencies = list(copy, 'deficiencies').filter((d) => d.circuitId === circuitId);
         return { circuit, trips, readings, findings, deficiencies, view: viewOf(copy) };
       },
-      [circuitId, bands],
+      [circuitId, bands, unit],
     ),
   );
 }

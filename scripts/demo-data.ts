@@ -913,14 +913,26 @@ export const DEMO_PASSWORD = 'ampwright-demo';
  * The demo's condition record (invented): at the clinic, the autoclave circuit LA 28 has tripped
  * three times this autumn at about half its rating; the November thermal survey found its load
  * lug hot and the torque audit found the terminal loose. Plus a stale directory entry found on the
- * visual check and a filler plate the owner chose to defer. Dates are relative to the seed day.
+ * visual check and a filler plate the owner chose to defer. A survey a year earlier found the same
+ * lug barely warm (so its rise across surveys deviates), and a trip test after the re-torque shows
+ * the breaker itself clears in time, on an invented demo band. Dates are relative to the seed day.
  */
 export interface DemoRecord {
   buildingKey: string;
   panelKey: string;
+  /** the organisation's band library: invented bands, labelled so, never a maker's curve */
+  bands: {
+    key: string;
+    label: string;
+    ratingA: number;
+    source: string;
+    points: { multiple: number; minS: number; maxS: number }[];
+    instantaneousMultiple: number | null;
+    instantaneousTolerancePct: number | null;
+  }[];
   inspections: {
     key: string;
-    kind: 'thermal-survey' | 'torque-audit' | 'visual';
+    kind: 'thermal-survey' | 'torque-audit' | 'trip-test' | 'visual';
     by: 'inspector' | 'electrician';
     daysAgo: number;
     ambientC: number | null;
@@ -928,7 +940,8 @@ export interface DemoRecord {
     notes: string;
     signed: boolean;
   }[];
-  readings: ({ inspectionKey: string; key: string; position: number | null } & Record<string, unknown>)[];
+  /** `bandKey` names a band of `bands` the reading is judged against */
+  readings: ({ inspectionKey: string; key: string; position: number | null; bandKey?: string } & Record<string, unknown>)[];
   trips: { position: number; daysAgo: number; hour: number; loadA: number | null; circumstances: string }[];
   deficiencies: {
     title: string;
@@ -947,10 +960,56 @@ export interface DemoRecord {
   }[];
 }
 
+const DEMO_BAND_SOURCE =
+  'DEMO: invented for the demonstration, shaped like a small thermal-magnetic breaker. Not a maker\u2019s curve: ' +
+  'read a real band off the maker\u2019s published time-current curve.';
+
 export const DEMO_RECORD: DemoRecord = {
   buildingKey: 'clinic',
   panelKey: 'clinic-LA',
+  bands: [
+    {
+      key: 'demo-20',
+      label: 'Demo 20 A thermal-magnetic (invented)',
+      ratingA: 20,
+      source: DEMO_BAND_SOURCE,
+      points: [
+        { multiple: 1.35, minS: 50, maxS: 1800 },
+        { multiple: 2, minS: 12, maxS: 150 },
+        { multiple: 3, minS: 5, maxS: 60 },
+        { multiple: 5, minS: 1.8, maxS: 20 },
+        { multiple: 7, minS: 1, maxS: 10 },
+      ],
+      instantaneousMultiple: 10,
+      instantaneousTolerancePct: 25,
+    },
+    {
+      key: 'demo-50',
+      label: 'Demo 50 A thermal-magnetic (invented)',
+      ratingA: 50,
+      source: DEMO_BAND_SOURCE,
+      points: [
+        { multiple: 1.35, minS: 80, maxS: 3000 },
+        { multiple: 2, minS: 20, maxS: 250 },
+        { multiple: 3, minS: 8, maxS: 90 },
+        { multiple: 5, minS: 3, maxS: 30 },
+        { multiple: 7, minS: 1.6, maxS: 15 },
+      ],
+      instantaneousMultiple: 10,
+      instantaneousTolerancePct: 25,
+    },
+  ],
   inspections: [
+    {
+      key: 'last-year',
+      kind: 'thermal-survey',
+      by: 'inspector',
+      daysAgo: 385,
+      ambientC: 22,
+      loadPct: 60,
+      notes: 'Annual scan of LA and LB, dead-front off, clinic open.',
+      signed: true,
+    },
     {
       key: 'survey',
       kind: 'thermal-survey',
@@ -971,8 +1030,30 @@ export const DEMO_RECORD: DemoRecord = {
       notes: 'Checked LA 28 after the survey, de-energised.',
       signed: false,
     },
+    {
+      key: 'trip-test',
+      kind: 'trip-test',
+      by: 'electrician',
+      daysAgo: 17,
+      ambientC: null,
+      loadPct: null,
+      notes: 'LA 28 breaker out of service, primary injection after the re-torque.',
+      signed: false,
+    },
   ],
   readings: [
+    {
+      inspectionKey: 'last-year',
+      key: 'lug-last-year',
+      position: 28,
+      kind: 'thermal',
+      component: 'lug',
+      phase: 'B',
+      temperatureC: 39,
+      referenceC: 36,
+      referenceBasis: 'similar',
+      notes: 'Load lug of LA 28 against LA 22 beside it.',
+    },
     {
       inspectionKey: 'survey',
       key: 'hot-lug',
@@ -1014,6 +1095,17 @@ export const DEMO_RECORD: DemoRecord = {
       asFoundValue: 15,
       asLeft: 35,
       notes: 'No maker value on the label; UL 486A-B table used.',
+    },
+    {
+      inspectionKey: 'trip-test',
+      key: 'trip-300',
+      position: 28,
+      kind: 'trip',
+      bandKey: 'demo-20',
+      testCurrentA: 60,
+      tripped: true,
+      tripTimeS: 14,
+      notes: '300 % of rating; cleared within the band. The low-load trips point to the lug, not the breaker.',
     },
   ],
   trips: [

@@ -16,6 +16,7 @@ import {
 } from './calc';
 import { SYSTEM_INFO, type PanelSystem } from './domain';
 import { VISUAL_CHECKS, type Priority, type ReadingFields } from './records';
+import { formatTemp, type TemperatureUnit } from './units';
 
 /**
  * How the rise was taken to the judgement: 'none' (no loads given), 'as-measured' (at or above the
@@ -75,6 +76,8 @@ export interface AssessContext {
   panel?: { system: PanelSystem } | null;
   /** the band the trip test is judged against (the reading's, else the circuit's) */
   band?: AssessBand | null;
+  /** the unit the summary's temperatures are written in (the user's choice; °C when absent) */
+  temperatureUnit?: TemperatureUnit;
 }
 
 const round1 = (x: number) => Math.round(x * 10) / 10;
@@ -104,7 +107,8 @@ function required(r: ReadingFields, field: keyof ReadingFields): number {
   return value;
 }
 
-function assessThermal(r: ReadingFields): ThermalAssessment & Omit<Assessment, 'kind'> {
+function assessThermal(r: ReadingFields, unit: TemperatureUnit): ThermalAssessment & Omit<Assessment, 'kind'> {
+  const rise = (c: number) => formatTemp(c, unit, 'rise');
   const riseC = required(r, 'temperatureC') - required(r, 'referenceC');
   const notes: string[] = [];
   let correction: ThermalCorrection = 'none';
@@ -139,13 +143,13 @@ function assessThermal(r: ReadingFields): ThermalAssessment & Omit<Assessment, '
       priority: null,
       action: 'Scan again under at least 40 % of normal load (NFPA 70B 2023).',
       notes,
-      summary: `ΔT ${round1(riseC)} °C ${over}: too lightly loaded to judge`,
+      summary: `ΔT ${rise(riseC)} ${over}: too lightly loaded to judge`,
       basis: THERMAL_BASIS,
       caution: SAFETY_CAUTION,
     };
   }
   const p = thermalPriority({ riseC: judgedRiseC, basis });
-  const corrected = correctedRiseC === null ? '' : ` (${round1(correctedRiseC)} °C at the reference load)`;
+  const corrected = correctedRiseC === null ? '' : ` (${rise(correctedRiseC)} at the reference load)`;
   const pulse = steadyState ? '' : ' during a test pulse, not steady state';
   return {
     kind: 'thermal',
@@ -157,7 +161,7 @@ function assessThermal(r: ReadingFields): ThermalAssessment & Omit<Assessment, '
     priority: p.priority,
     action: p.action,
     notes,
-    summary: `ΔT ${round1(riseC)} °C ${over}${pulse}${corrected}: ${p.label ?? 'below the table'}`,
+    summary: `ΔT ${rise(riseC)} ${over}${pulse}${corrected}: ${p.label ?? 'below the table'}`,
     basis: THERMAL_BASIS,
     caution: SAFETY_CAUTION,
   };
@@ -176,7 +180,7 @@ function assessThermal(r: ReadingFields): ThermalAssessment & Omit<Assessment, '
 export function assessReading(r: ReadingFields, ctx: AssessContext = {}): Assessment {
   switch (r.kind) {
     case 'thermal':
-      return assessThermal(r);
+      return assessThermal(r, ctx.temperatureUnit ?? 'C');
     case 'torque': {
       const specified = required(r, 'specified');
       const asLeft = required(r, 'asLeft');

@@ -8,6 +8,7 @@ import { Text } from '@/components/ui/text';
 import { useOutbox } from '@/hooks/use-outbox';
 import { useWaitingPhotos } from '@/hooks/use-photos';
 import { OrganisationSettingsCard } from '@/components/access/organisation-settings';
+import { TemperatureUnitCard } from '@/components/settings/temperature-unit-card';
 import { useSession, useSignOut } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
 
@@ -38,6 +39,7 @@ export default function Me() {
           <ReadOnlyField key={m.organisationId} label={m.organisationName} value={m.role} />
         ))}
       </Card>
+      <TemperatureUnitCard />
       {me.memberships
         .filter((m) => m.role === 'admin')
         .map((m) => (

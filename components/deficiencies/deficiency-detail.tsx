@@ -7,6 +7,7 @@ import { useRouter } from 'expo-router';
 import { StyleSheet, View } from 'react-native';
 import { Card } from '@/components/ui/card';
 import { assessOnDevice, useBands, useDeficiency, useMembership, useRecordWrites } from '@/hooks/use-records';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
 import { confirmAction } from '@/lib/confirm';
 import { may, todayISO } from '@/shared/deficiency';
 import { INSPECTION_KIND_LABELS, VISUAL_CHECKS, type Deficiency, type Reading } from '@/shared/records';
@@ -38,6 +39,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
   const router = useRouter();
   const query = useDeficiency(deficiencyId);
   const bands = useBands().data;
+  const { unit } = useTemperatureUnit();
   const writes = useRecordWrites();
   const membership = useMembership(query.data?.view.building.organisationId);
   const gate = replicaGate(query, 'deficiency');
@@ -53,7 +55,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
   const raisedEntry = entries.find((e) => e.kind === 'change' && e.text === 'raised');
   const raisedAt = raisedEntry?.at ?? madeAt(d.id);
   const repairPhotos = photos.filter((p) => p.purpose === 'repair').length;
-  const assessment = reading ? assessOnDevice(view, reading, bands) : null;
+  const assessment = reading ? assessOnDevice(view, reading, bands, unit) : null;
   const inspection = d.inspectionId ? view.inspection(d.inspectionId) : undefined;
   const fieldWorker = role !== 'owner';
 

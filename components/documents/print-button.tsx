@@ -8,6 +8,7 @@ import { useState } from 'react';
 import { Linking, Pressable, StyleSheet, View } from 'react-native';
 import { useSendReport } from '@/hooks/use-access';
 import { useOnline } from '@/hooks/use-outbox';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
 import { describeError } from '@/lib/api';
 import { absoluteApiUrl } from '@/lib/api-base';
 import { Button } from '@/components/ui/button';
@@ -76,6 +77,9 @@ export function PrintDirectoryButton({ panelId }: { panelId: string }) {
 /** "Report (PDF)" of an inspection: readings with verdicts, deficiencies, load, sign-off. */
 export function ReportPdfButton({ inspectionId }: { inspectionId: string }) {
   const { note, open } = useOpenPdf();
+  // temperatures print in the reader's unit; °C is the server's default
+  const { unit } = useTemperatureUnit();
+  const query = unit === 'C' ? '' : `?temperature=${unit}`;
   return (
     <View style={styles.wrap}>
       <View style={styles.row}>
@@ -83,7 +87,7 @@ export function ReportPdfButton({ inspectionId }: { inspectionId: string }) {
           label="Report (PDF)"
           tone="secondary"
           testID="report-pdf"
-          onPress={() => open(`/inspections/${inspectionId}/report.pdf`)}
+          onPress={() => open(`/inspections/${inspectionId}/report.pdf${query}`)}
         />
       </View>
       {note && <Text variant="small" tone="soft" testID="print-note">{note}</Text>}

@@ -17,31 +17,36 @@ import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values
 import { lightLoadWarning, needsLoad } from './inspection-format';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { parseTempInput, tempInputText, unitSymbol, type TemperatureUnit } from '@/shared/units';
 import { colours, radii, space } from '@/components/ui/theme';
 
 interface Draft {
   kind: InspectionKind;
   panelIds: string[];
   performedOn: string;
+  /** the ambient is typed in this unit (the user's choice when the form opened); stored in °C */
+  temperatureUnit: TemperatureUnit;
   ambientC: string;
   loadPct: string;
   notes: string;
 }
 
-const toDraft = (i: InspectionCreateBody): Draft => ({
+const toDraft = (i: InspectionCreateBody, unit: TemperatureUnit): Draft => ({
+  temperatureUnit: unit,
   kind: i.kind,
   panelIds: i.panelIds,
   performedOn: i.performedOn,
-  ambientC: textOf(i.ambientC),
+  ambientC: tempInputText(i.ambientC, unit, 'absolute'),
   loadPct: textOf(i.loadPct),
   notes: i.notes,
 });
 
-const fromDraft = (d: Draft) => ({
+const fromDraft = (d: Draft, previousAmbientC: number | null) => ({
   kind: d.kind,
   panelIds: d.panelIds,
   performedOn: d.performedOn.trim(),
-  ambientC: numberOrNull(d.ambientC),
+  ambientC: parseTempInput(d.ambientC, d.temperatureUnit, 'absolute', previousAmbientC),
   loadPct: numberOrNull(d.loadPct),
   notes: d.notes,
 });
@@ -130,8 +135,9 @@ export interface InspectionFormProps {
 const samePanels = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((id) => b.includes(id));
 
 export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, lockedPanelIds = [] }: InspectionFormProps) {
-  const { draft, errors, setErrors, text, field } = useFormDraft<Draft>(() => toDraft(initial));
-  const preview = fromDraft(draft);
+  const { unit } = useTemperatureUnit();
+  const { draft, errors, setErrors, text, field } = useFormDraft<Draft>(() => toDraft(initial, unit));
+  const preview = fromDraft(draft, initial.ambientC);
   const submit = () => {
     const parsed = inspectionCreateBody.safeParse(preview);
     if (!parsed.success) {
@@ -167,7 +173,7 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
           testID="field-performed-on"
         />
         <TextField
-          label="Ambient (°C)"
+          label={`Ambient (${unitSymbol(draft.temperatureUnit)})`}
           {...text('ambientC')}
           keyboardType="numbers-and-punctuation"
           mono

@@ -8,6 +8,8 @@ import { InspectionLoadWarning } from './inspection-form';
 import { dateText, personName, signedLine } from './inspection-format';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { formatTemp } from '@/shared/units';
 
 function Fact({ label, value, testID }: { label: string; value: string; testID?: string }) {
   return (
@@ -33,6 +35,7 @@ export function InspectionHeader({
   onEdit?: () => void;
 }) {
   const signed = signedLine(inspection, myId);
+  const { unit } = useTemperatureUnit();
   return (
     <View style={styles.head} testID="inspection-header">
       <View style={styles.titleRow}>
@@ -47,7 +50,7 @@ export function InspectionHeader({
       </View>
       <Card size="row" style={styles.facts}>
         <Fact label="PANELS" value={panels.map((p) => p.tag).join(' ') || '—'} />
-        <Fact label="AMBIENT" value={inspection.ambientC === null ? 'not recorded' : `${inspection.ambientC} °C`} testID="inspection-ambient" />
+        <Fact label="AMBIENT" value={formatTemp(inspection.ambientC, unit, 'absolute', 'not recorded')} testID="inspection-ambient" />
         <Fact label="LOAD AT THE TIME" value={inspection.loadPct === null ? 'not recorded' : `${inspection.loadPct} % of normal`} testID="inspection-load" />
       </Card>
       <InspectionLoadWarning kind={inspection.kind} loadPct={inspection.loadPct} />

@@ -21,6 +21,7 @@ import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Text } from '@/components/ui/text';
 import { colours, space } from '@/components/ui/theme';
+import { CircuitThermalTrends } from './thermal-trend';
 
 /** Entries shown before "Show older". */
 const RECENT = 8;
@@ -97,6 +98,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
           style={styles.start}
         />
       )}
+      <CircuitThermalTrends readings={readings.filter((r) => r.reading.kind === 'thermal')} view={view} />
 
       <Section title="Open deficiencies" testID="record-deficiencies">
         {outstanding.length === 0 ? (

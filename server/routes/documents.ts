@@ -13,6 +13,11 @@ const directoryQuery = z.object({
   paper: z.enum(['letter', 'a4'], { error: 'paper: letter or a4' }).default('letter'),
 });
 
+/** The reader's temperature unit (the app sends its user's choice; values are stored in °C). */
+const reportQuery = z.object({
+  temperature: z.enum(['C', 'F'], { error: 'temperature: C or F' }).default('C'),
+});
+
 function sendPdf(res: Response, { filename, pdf }: { filename: string; pdf: Buffer }): void {
   res.setHeader('Content-Type', 'application/pdf');
   res.setHeader('Content-Disposition', `inline; filename="${filename}"`);
@@ -45,8 +50,8 @@ export function documentsRouter(
   );
   router.get(
     '/inspections/:id/report.pdf',
-    handle({ params: idParams }, async ({ params }, req, res) => {
-      sendPdf(res, await inspectionReportPdf(ds, store, req.actor, params.id));
+    handle({ params: idParams, query: reportQuery }, async ({ params, query }, req, res) => {
+      sendPdf(res, await inspectionReportPdf(ds, store, req.actor, params.id, { temperatureUnit: query.temperature }));
     }),
   );
   return router;

@@ -1,6 +1,7 @@
 import { In, IsNull, type EntityManager } from 'typeorm';
 import { assessReading, type Assessment } from '../../shared/assess';
 import type { Role } from '../../shared/domain';
+import type { TemperatureUnit } from '../../shared/units';
 import { roleForBuilding, type Actor } from '../auth/access';
 import { Building, Circuit, CurveBand, Deficiency, Inspection, Panel, Photo, Reading } from '../entities';
 import { NotFoundError } from '../http/errors';
@@ -20,7 +21,7 @@ export interface InspectionRecord {
   /** the live circuits of its panels, plus any other a reading names */
   circuitById: Map<string, Circuit>;
   /** readings in id order, each judged by shared/assess.ts */
-  readings: { reading: Reading; circuit: Circuit | undefined; assessment: Assessment }[];
+  readings: { reading: Reading; circuit: Circuit | undefined; assessment: Assessment; band: CurveBand | null }[];
   /** deficiencies it raised, by priority then id */
   deficiencies: Deficiency[];
   /** photos of its readings and deficiencies, in the order taken */
@@ -32,7 +33,13 @@ export interface InspectionRecord {
  * photos: GET /api/inspections/:id and the report PDF read the same thing the same way. Not found
  * when the actor may not see the building.
  */
-export async function loadInspection(em: EntityManager, actor: Actor, inspectionId: string): Promise<InspectionRecord> {
+export async function loadInspection(
+  em: EntityManager,
+  actor: Actor,
+  inspectionId: string,
+  /** the unit the assessments' summaries write temperatures in (the report's reader's choice) */
+  temperatureUnit: TemperatureUnit = 'C',
+): Promise<InspectionRecord> {
   const inspection = await em.findOne(Inspection, { where: { id: inspectionId, ...live } });
   const building = inspection && (await em.findOne(Building, { where: { id: inspection.buildingId, ...live } }));
   const role = building && roleForBuilding(actor, building);
@@ -75,12 +82,9 @@ export async function loadInspection(em: EntityManager, actor: Actor, inspection
     readings: readings.map((reading) => {
       const circuit = reading.circuitId ? circuitById.get(reading.circuitId) : undefined;
       const bandId = reading.bandId ?? circuit?.bandId;
-      const assessment = assessReading(reading, {
-        circuit,
-        panel: panelById.get(reading.panelId),
-        band: bandId ? bandById.get(bandId) : null,
-      });
-      return { reading, circuit, assessment };
+      const band = (bandId && bandById.get(bandId)) || null;
+      const assessment = assessReading(reading, { circuit, panel: panelById.get(reading.panelId), band, temperatureUnit });
+      return { reading, circuit, assessment, band };
     }),
     deficiencies,
     photos,

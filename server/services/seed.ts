@@ -13,6 +13,7 @@ import { dueOnFor } from '../../shared/deficiency';
 import {
   Building,
   Circuit,
+  CurveBand,
   Deficiency,
   DeficiencyEntry,
   Inspection,
@@ -94,7 +95,7 @@ export async function seedDemo(ds: DataSource): Promise<boolean> {
       }
     }
     const home = seeded.get(DEMO_RECORD.buildingKey)!;
-    await seedRecord(em, home, userIds);
+    await seedRecord(em, home, userIds, organisationId);
   });
   return true;
 }
@@ -104,9 +105,15 @@ async function seedRecord(
   em: EntityManager,
   home: { buildingId: string; panelIds: Map<string, string>; circuitIds: Map<string, string> },
   userIds: Map<string, string>,
+  organisationId: string,
 ) {
   const hlc = serverStamp();
   const r = DEMO_RECORD;
+  // the band library (REST, not synced): invented demo bands, labelled so
+  const bandIds = new Map(r.bands.map((b) => [b.key, uuidv7()]));
+  for (const { key, ...band } of r.bands) {
+    await em.insert(CurveBand, { id: bandIds.get(key)!, organisationId, ...band, updatedAt: new Date(), deletedAt: null });
+  }
   const panelId = home.panelIds.get(r.panelKey)!;
   const circuitAt = (position: number | null, panelKey = r.panelKey) =>
     position === null ? null : home.circuitIds.get(`${panelKey}:${position}`)!;
@@ -135,13 +142,14 @@ async function seedRecord(
     })]);
   }
   const readingIds = new Map<string, string>();
-  for (const { inspectionKey, key, position, ...fields } of r.readings) {
+  for (const { inspectionKey, key, position, bandKey, ...fields } of r.readings) {
     const id = uuidv7();
     readingIds.set(key, id);
+    const band = bandKey ? { bandId: bandIds.get(bandKey)! } : {};
     await insertRows(em, Reading, [Object.assign(new Reading(), {
       id,
       ...base,
-      ...stamped({ inspectionId: inspectionIds.get(inspectionKey)!, panelId, circuitId: circuitAt(position), ...fields }, hlc),
+      ...stamped({ inspectionId: inspectionIds.get(inspectionKey)!, panelId, circuitId: circuitAt(position), ...band, ...fields }, hlc),
     })]);
   }
   for (const t of r.trips) {

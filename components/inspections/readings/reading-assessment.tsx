@@ -9,8 +9,8 @@ import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
 import { tripVerdictWords } from '@/components/inspections/inspection-format';
-
-const round1 = (x: number) => (Math.round(x * 10) / 10).toFixed(1);
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { formatTemp } from '@/shared/units';
 
 /** The priority a reading gives, or a plain "no action" mark (a word, never a colour alone). */
 export function ReadingPriority({ assessment }: { assessment: Assessment }) {
@@ -27,12 +27,13 @@ export function ReadingPriority({ assessment }: { assessment: Assessment }) {
 
 /** The figures behind the judgement, in the mono face readings use. */
 function Figures({ assessment }: { assessment: Assessment }) {
+  const { unit } = useTemperatureUnit();
   switch (assessment.kind) {
     case 'thermal':
       return (
         <Text variant="reading" testID="assessment-figures">
-          ΔT {round1(assessment.riseC)} °C
-          {assessment.correctedRiseC !== null ? ` · at reference load ${round1(assessment.correctedRiseC)} °C` : ''}
+          ΔT {formatTemp(assessment.riseC, unit, 'rise')}
+          {assessment.correctedRiseC !== null ? ` · at reference load ${formatTemp(assessment.correctedRiseC, unit, 'rise')}` : ''}
           {assessment.correction === 'too-light' ? ' · too lightly loaded to judge' : ''}
           {assessment.steadyState ? '' : ' · test pulse, not steady state'}
           {assessment.priority !== null ? ` · NETA priority ${assessment.priority}` : ''}

@@ -8,14 +8,16 @@ import { circuitName, fastenerText, READING_KIND_LABELS } from '@/components/ins
 import { ReadingAssessment } from './reading-assessment';
 import { Text } from '@/components/ui/text';
 import { MIN_TOUCH, space } from '@/components/ui/theme';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { formatTemp, type TemperatureUnit } from '@/shared/units';
 
 /** The measured values of a reading as one mono line. */
-export function readingValues(r: Reading, circuit: Circuit | null): string {
+export function readingValues(r: Reading, circuit: Circuit | null, unit: TemperatureUnit = 'C'): string {
   switch (r.kind) {
     case 'thermal': {
       const basis = r.referenceBasis === 'ambient' ? 'ambient' : 'similar';
       const load = r.loadA !== null && r.referenceLoadA !== null ? ` · ${r.loadA} A of ${r.referenceLoadA} A` : '';
-      return `${r.temperatureC ?? '?'} °C vs ${r.referenceC ?? '?'} °C ${basis}${load}`;
+      return `${formatTemp(r.temperatureC, unit, 'absolute')} vs ${formatTemp(r.referenceC, unit, 'absolute')} ${basis}${load}`;
     }
     case 'torque': {
       const found = r.asFound === 'held' ? 'held' : `turned at ${r.asFoundValue ?? '?'}`;
@@ -57,6 +59,7 @@ export function ReadingCard({
   onOpen?: () => void;
   hasDeficiency: boolean;
 }) {
+  const { unit } = useTemperatureUnit();
   const body = (
     <>
       <View style={styles.top}>
@@ -64,7 +67,7 @@ export function ReadingCard({
         {onOpen && <Text tone="faint">Edit ›</Text>}
       </View>
       <Text variant="strong">{readingWhere(reading, circuit)}</Text>
-      <Text variant="reading" tone="soft">{readingValues(reading, circuit)}</Text>
+      <Text variant="reading" tone="soft">{readingValues(reading, circuit, unit)}</Text>
       <ReadingAssessment assessment={assessment} compact />
       {hasDeficiency && <Text variant="small" tone="copper">● Deficiency raised from this reading</Text>}
     </>

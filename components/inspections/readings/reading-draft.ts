@@ -14,6 +14,7 @@ import {
 } from '@/shared/records';
 import { fieldErrors } from '@/shared/schemas';
 import { numberOrNull, textOf } from '@/components/ui/form-values';
+import { parseTempInput, tempInputText, type TemperatureUnit } from '@/shared/units';
 
 type Screw = (typeof TORQUE_SCREWS)[number];
 
@@ -22,6 +23,8 @@ export interface ReadingDraft {
   notes: string;
   component: ReadingFields['component'];
   phase: ReadingFields['phase'];
+  /** typed in this unit (the user's choice when the form opened); stored in °C */
+  temperatureUnit: TemperatureUnit;
   temperatureC: string;
   referenceC: string;
   referenceBasis: ReadingFields['referenceBasis'];
@@ -44,14 +47,15 @@ export interface ReadingDraft {
   bandId: string | null;
 }
 
-export function toReadingDraft(r: ReadingFields): ReadingDraft {
+export function toReadingDraft(r: ReadingFields, unit: TemperatureUnit = 'C'): ReadingDraft {
   return {
     circuitId: r.circuitId,
     notes: r.notes,
     component: r.component,
     phase: r.phase,
-    temperatureC: textOf(r.temperatureC),
-    referenceC: textOf(r.referenceC),
+    temperatureUnit: unit,
+    temperatureC: tempInputText(r.temperatureC, unit, 'absolute'),
+    referenceC: tempInputText(r.referenceC, unit, 'absolute'),
     referenceBasis: r.referenceBasis,
     loadA: textOf(r.loadA),
     referenceLoadA: textOf(r.referenceLoadA),
@@ -84,8 +88,9 @@ export function fromReadingDraft(d: ReadingDraft, base: ReadingFields): ReadingF
         ...common,
         component: d.component,
         phase: d.phase,
-        temperatureC: numberOrNull(d.temperatureC),
-        referenceC: numberOrNull(d.referenceC),
+        // typed in the draft's unit; unchanged text keeps the stored °C exactly
+        temperatureC: parseTempInput(d.temperatureC, d.temperatureUnit ?? 'C', 'absolute', base.temperatureC),
+        referenceC: parseTempInput(d.referenceC, d.temperatureUnit ?? 'C', 'absolute', base.referenceC),
         referenceBasis: d.referenceBasis,
         loadA: numberOrNull(d.loadA),
         referenceLoadA: numberOrNull(d.referenceLoadA),

@@ -22,6 +22,7 @@ import { MakerValueCheck, SCREW_HINT, SCREW_LABELS, ScrewSizeField, TestPulseFie
 import { Text } from '@/components/ui/text';
 import type { DraftSetter, FormBinders } from '@/components/ui/use-form-draft';
 import { colours, radii, space } from '@/components/ui/theme';
+import { tempInputText, unitSymbol } from '@/shared/units';
 
 
 interface KindFieldsProps {
@@ -41,7 +42,7 @@ export function ThermalFields({ draft, set, errors, text, field, panel, circuits
   const chooseBasis = (basis: ReadingDraft['referenceBasis']) => {
     set('referenceBasis')(basis);
     // over ambient air: the inspection already knows the air temperature
-    if (basis === 'ambient' && !draft.referenceC.trim() && ambientC !== null) set('referenceC')(String(ambientC));
+    if (basis === 'ambient' && !draft.referenceC.trim() && ambientC !== null) set('referenceC')(tempInputText(ambientC, draft.temperatureUnit, 'absolute'));
   };
   return (
     <>
@@ -64,14 +65,14 @@ export function ThermalFields({ draft, set, errors, text, field, panel, circuits
       />
       <FieldRow wrap>
         <TextField
-          label="Temperature (°C)"
+          label={`Temperature (${unitSymbol(draft.temperatureUnit)})`}
           {...text('temperatureC')}
           keyboardType="decimal-pad"
           mono
           testID="field-temperature"
         />
         <TextField
-          label="Reference (°C)"
+          label={`Reference (${unitSymbol(draft.temperatureUnit)})`}
           {...text('referenceC')}
           keyboardType="decimal-pad"
           mono

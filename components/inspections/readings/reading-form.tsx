@@ -19,6 +19,8 @@ import { ThermalFields, TorqueFields, TripFields } from './reading-fields';
 import { Text } from '@/components/ui/text';
 import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
 import { space } from '@/components/ui/theme';
+import { useTemperatureUnit } from '@/hooks/use-temperature-unit';
+import { TripReadingPlot } from '@/components/trips/trip-reading-plot';
 
 /** The fields a patch may carry: the inspection, panel and kind of a reading never change. */
 function patchOf(before: ReadingFields, after: ReadingCreateBody): ReadingPatchBody {
@@ -49,14 +51,15 @@ export interface ReadingFormProps {
 
 export function ReadingForm(props: ReadingFormProps) {
   const { initial, panel, circuits, bands, ambientC, contextFor, wide } = props;
-  const { draft, set, errors, setErrors } = useFormDraft<ReadingDraft>(() => toReadingDraft(initial));
+  const { unit } = useTemperatureUnit();
+  const { draft, set, errors, setErrors } = useFormDraft<ReadingDraft>(() => toReadingDraft(initial, unit));
   const [readingId, setReadingId] = useState(props.readingId);
   const [baseline, setBaseline] = useState<ReadingFields>(initial);
   const [justSaved, setJustSaved] = useState(false);
 
   const candidate = fromReadingDraft(draft, baseline);
   const dirty = readingId === null || Object.keys(changedFields(baseline, candidate)).length > 0;
-  const live = liveAssessment(candidate, contextFor(candidate));
+  const live = liveAssessment(candidate, { ...contextFor(candidate), temperatureUnit: draft.temperatureUnit });
   const kind = initial.kind;
 
   const edit: typeof set = (key) => (value) => {
@@ -105,6 +108,7 @@ export function ReadingForm(props: ReadingFormProps) {
           ))}
         </>
       )}
+      <TripReadingPlot reading={candidate} assessment={live.assessment} circuits={circuits} bands={bands} />
     </Card>
   );
 

@@ -25,9 +25,14 @@ import { loadInspection } from '../inspection-record';
 import type { PhotoStore } from '../photo-store';
 import { COPPER, FONT, INK, PRIORITY_COLOURS, RULE, SOFT, dayOf, finish, newDocument, printable } from './fonts';
 import { slug } from './directory';
+import { drawBandPlot } from './band-plot';
+import { bandPlotView, plotTestOf } from '../../../shared/band-plot-words';
+import { formatTemp, type TemperatureUnit } from '../../../shared/units';
 
 const MARGIN = 48;
 const THUMB_PT = 110;
+/** the band plot's height in the report, pt */
+const PLOT_PT = 220;
 
 /** Room left on the page before the bottom margin. */
 function roomLeft(doc: PDFKit.PDFDocument): number {
@@ -92,12 +97,12 @@ function readingTitle(r: Reading, circuit: Circuit | undefined, panel: Panel | u
   return `${what}${where ? ` (${where}${circuit?.description ? `: ${circuit.description}` : ''})` : ''}`;
 }
 
-function measured(r: Reading): string | null {
+function measured(r: Reading, unit: TemperatureUnit): string | null {
   switch (r.kind) {
     case 'thermal':
       return [
-        r.temperatureC !== null ? `${r.temperatureC} °C measured` : null,
-        r.referenceC !== null ? `${r.referenceC} °C reference (${r.referenceBasis === 'ambient' ? 'ambient air' : 'similar component'})` : null,
+        r.temperatureC !== null ? `${formatTemp(r.temperatureC, unit, 'absolute')} measured` : null,
+        r.referenceC !== null ? `${formatTemp(r.referenceC, unit, 'absolute')} reference (${r.referenceBasis === 'ambient' ? 'ambient air' : 'similar component'})` : null,
         r.loadA !== null ? `load ${r.loadA} A` : null,
         r.referenceLoadA !== null ? `reference load ${r.referenceLoadA} A` : null,
       ].filter(Boolean).join('; ') || null;
@@ -181,8 +186,11 @@ export async function inspectionReportPdf(
   store: PhotoStore,
   actor: Actor,
   inspectionId: string,
+  /** the reader's temperature unit (stored values are °C) */
+  { temperatureUnit = 'C' }: { temperatureUnit?: TemperatureUnit } = {},
 ): Promise<{ filename: string; pdf: Buffer }> {
-  const record = await loadInspection(ds.manager, actor, inspectionId);
+  const unit = temperatureUnit;
+  const record = await loadInspection(ds.manager, actor, inspectionId, unit);
   const { inspection, building, panels, panelById, circuitById, deficiencies, photos } = record;
 
   const kind = INSPECTION_KIND_LABELS[inspection.kind];
@@ -196,7 +204,7 @@ export async function inspectionReportPdf(
   doc.moveDown(0.5);
   fact(doc, 'Inspector', inspection.inspectorName || 'not recorded');
   fact(doc, 'Panels', panels.map((p) => `${p.tag}${p.location ? ` (${p.location})` : ''}`).join(', ') || 'none named');
-  fact(doc, 'Ambient', inspection.ambientC !== null ? `${inspection.ambientC} °C` : 'not recorded');
+  fact(doc, 'Ambient', formatTemp(inspection.ambientC, unit, 'absolute', 'not recorded'));
   fact(doc, 'Load at the time', inspection.loadPct !== null ? `${inspection.loadPct} % of normal` : 'not recorded');
   if (inspection.notes) fact(doc, 'Notes', inspection.notes);
   doc.moveDown(0.3);
@@ -212,10 +220,10 @@ export async function inspectionReportPdf(
   // ---- readings
   heading(doc, `Readings (${record.readings.length})`);
   if (record.readings.length === 0) doc.font(FONT.text).fontSize(10).fillColor(SOFT).text('No readings were recorded.');
-  for (const { reading: r, circuit, assessment: a } of record.readings) {
+  for (const { reading: r, circuit, assessment: a, band } of record.readings) {
     keepTogether(doc, 80);
     doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(readingTitle(r, circuit, panelById.get(r.panelId)), MARGIN, doc.y, { width });
-    const m = measured(r);
+    const m = measured(r, unit);
     if (m) doc.font(FONT.mono).fontSize(9).fillColor(SOFT).text(m, { width });
     tagLine(doc, verdictWords(a), a.priority ? PRIORITY_COLOURS[a.priority] : SOFT, a.summary);
     if (a.kind === 'thermal' && a.priority) doc.font(FONT.text).fontSize(9.5).fillColor(INK).text(`Action: ${a.action}`, { width });
@@ -223,6 +231,11 @@ export async function inspectionReportPdf(
     if (a.kind === 'torque') for (const w of a.verdict.warnings) doc.font(FONT.text).fontSize(9).fillColor(INK).text(w, { width });
     doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(`Basis: ${a.basis}`, { width });
     if (r.notes) doc.font(FONT.text).fontSize(9).fillColor(INK).text(`Note: ${r.notes}`, { width });
+    const plot = r.kind === 'trip' && band ? bandPlotView(band, [plotTestOf(r, a.kind === 'trip' ? a.result : null)].filter((t) => t !== null)) : null;
+    if (plot) {
+      keepTogether(doc, PLOT_PT + 70);
+      drawBandPlot(doc, plot, { x: MARGIN, y: doc.y + 6, width: Math.min(width, 380), height: PLOT_PT });
+    }
     doc.moveDown(0.6);
   }
 

@@ -5,6 +5,7 @@ import { READING_KIND_LABELS } from '@/components/inspections/inspection-format'
 import { ReadingCard } from '@/components/inspections/readings/reading-card';
 import { ReadingFollowUp } from '@/components/inspections/readings/reading-follow-up';
 import { ReadingForm } from '@/components/inspections/readings/reading-form';
+import { TripReadingPlot } from '@/components/trips/trip-reading-plot';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Screen } from '@/components/ui/screen';
 import { EmptyState, replicaGate } from '@/components/ui/states';
@@ -72,6 +73,7 @@ export default function ReadingScreen() {
             circuit={existing.reading.circuitId ? (view.circuit(existing.reading.circuitId) ?? null) : null}
             hasDeficiency={!!deficiencyOf(existing.reading.id)}
           />
+          <TripReadingPlot reading={existing.reading} assessment={existing.assessment} circuits={circuits} bands={bands} />
           <ReadingFollowUp
             kind={kind}
             saved={existing}
