@@ -66,6 +66,13 @@ export const NEW_CIRCUIT: CircuitFields = {
   handleLock: false,
   notes: '',
   bandId: null,
+  interruptingKA: null,
+  breakerMake: '',
+  catalogueNumber: '',
+  ambientC: null,
+  currentCarrying: null,
+  verifiedOn: null,
+  verifiedBy: null,
 };
 
 interface Draft {
