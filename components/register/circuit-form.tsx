@@ -20,7 +20,8 @@ import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-
 import { ChoiceField, FieldRow, FormProblems, ReadOnlyField, TextField, ToggleField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
-import { useFormDraft } from '@/components/ui/use-form-draft';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
+import { BreakerFields, breakerDraft, breakerValues, type BreakerDraft } from './breaker-fields';
 import { colours, radii, space } from '@/components/ui/theme';
 
 export const BREAKER_TYPE_LABELS: Record<BreakerType, string> = {
@@ -75,7 +76,7 @@ export const NEW_CIRCUIT: CircuitFields = {
   verifiedBy: null,
 };
 
-interface Draft {
+interface Draft extends BreakerDraft {
   position: string;
   poles: 1 | 2 | 3;
   ratingA: string;
@@ -97,6 +98,7 @@ interface Draft {
 
 function toDraft(c: CircuitFields): Draft {
   return {
+    ...breakerDraft(c),
     position: textOf(c.position),
     poles: c.poles,
     ratingA: textOf(c.ratingA),
@@ -139,6 +141,7 @@ function fromDraft(d: Draft, base: CircuitFields): CircuitFields {
     notes: d.notes,
     // a band belongs to a breaker: a space has none
     bandId: d.status === 'space' ? null : d.bandId,
+    ...breakerValues(d),
   };
 }
 
@@ -295,6 +298,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
             {...field('terminationTempC')}
             hint="What this breaker’s terminals are listed and marked for, where it differs from the panel (NEC 110.14(C))."
           />
+          <BreakerFields bind={bindForm(draft, set, errors)} />
           <ToggleField label="Handle lock fitted" {...field('handleLock')} />
           {numberOrNull(draft.ratingA) ? (
             <BandPicker

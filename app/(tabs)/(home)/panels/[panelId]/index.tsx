@@ -4,7 +4,11 @@ import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
 import { CsvButtons } from '@/components/csv/csv-buttons';
 import { InspectPanelButton } from '@/components/inspections/inspection-entry';
+import { PhotoStrip } from '@/components/documents/photos';
+import { FaultCheckCard } from '@/components/register/fault-check';
+import { MeasuredLoad } from '@/components/register/measured-load';
 import { PanelLoadSummary } from '@/components/register/panel-load';
+import { SpareCapacityCalculator } from '@/components/register/spare-capacity';
 import { PanelProblems } from '@/components/register/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/register/panel-schedule';
 import { PrintDirectoryButton } from '@/components/documents/print-button';
@@ -16,6 +20,7 @@ import { colours, radii, space } from '@/components/ui/theme';
 import { usePanel } from '@/hooks/use-register';
 import { canEditSchedules } from '@/hooks/use-session';
 import { SYSTEM_INFO } from '@/shared/domain';
+import { can } from '@/shared/permissions';
 
 export default function PanelScreen() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();
@@ -90,6 +95,11 @@ export default function PanelScreen() {
             <PanelProblems problems={problems} onOpen={openCircuit} />
           </View>
         </View>
+        <FaultCheckCard panel={panel} circuits={circuits} />
+        <View style={styles.overview}>
+          <View style={styles.overviewItem}><MeasuredLoad panel={panel} circuits={circuits} /></View>
+          <View style={styles.overviewItem}><SpareCapacityCalculator panel={panel} circuits={circuits} /></View>
+        </View>
         <PanelSchedule
           panel={panel}
           circuits={circuits}
@@ -100,6 +110,7 @@ export default function PanelScreen() {
             router.push({ pathname: '/panels/[panelId]/new-circuit', params: { panelId, position: String(position) } })
           }
         />
+        <PhotoStrip buildingId={building.id} parentKind="panel" parentId={panel.id} purpose="equipment" canAdd={can(building.role, 'inspection.record')} label="Add panel photo" />
         <SafetyNote />
       </Screen>
     </>

@@ -1,4 +1,5 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
+import { BreakerIdentity } from '@/components/register/breaker-identity';
 import { CircuitDetails, CircuitForm } from '@/components/register/circuit-form';
 import { Screen } from '@/components/ui/screen';
 import { CircuitRecord, CircuitRecordSummary } from '@/components/trips/trip-record';
@@ -24,6 +25,7 @@ export default function CircuitScreen() {
       <Screen>
         <Stack.Screen options={{ title }} />
         <CircuitDetails circuit={circuit} panel={panel} />
+        <BreakerIdentity circuit={circuit} panel={panel} building={building} />
         <CircuitRecord circuitId={circuit.id} panelId={panel.id} />
       </Screen>
     );
@@ -32,6 +34,7 @@ export default function CircuitScreen() {
     <Screen>
       <Stack.Screen options={{ title }} />
       <CircuitRecordSummary circuitId={circuit.id} />
+      <BreakerIdentity circuit={circuit} panel={panel} building={building} />
       <CircuitForm
         key={circuit.id}
         panel={panel}
