@@ -49,8 +49,12 @@ test('a panel’s fault current set above a breaker’s interrupting rating flag
   await page.getByRole('radio', { name: 'Taken from: Label on the equipment' }).click();
   await page.getByTestId('save-panel').click();
 
-  await expect(page.getByTestId('fault-check-headline')).toHaveText('Available fault current 22 kA (label, 2025-03-01) — 1 breaker rated below it');
+  // the load centre itself is marked 10 kA, so it is flagged too (110.10)
+  await expect(page.getByTestId('fault-check-headline')).toHaveText(
+    'Available fault current 22 kA (label, 2025-03-01) — 1 breaker rated below it, the panel rated below it',
+  );
   await expect(page.getByTestId('fault-check')).toContainText('Position 1 (50 A) interrupts 10 kA; 22 kA is available (NEC 110.9).');
+  await expect(page.getByTestId('fault-check')).toContainText('The panel is rated 10 kA short-circuit; 22 kA is available (NEC 110.10).');
 
   await page.getByTestId('position-1').click();
   await expect(page.getByTestId('breaker-identity')).toContainText('Corve CQ250');
