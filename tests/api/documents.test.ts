@@ -135,6 +135,10 @@ describe('GET /api/panels/:id/directory.pdf (NEC 408.4(A) directory)', () => {
       assert.ok(text.includes(`Panel ${panel.tag}`), 'the tag');
       if (panel.location) assert.ok(text.includes(panel.location), 'the location');
       assert.ok(text.includes('208Y/120 V 3-phase 4W'), 'the system label (SYSTEM_INFO, φ spelt out: the fonts lack it)');
+      // issue 13 items 7 and 13: the label's fault current at the door, and what is rated below it
+      assert.ok(text.includes('14 kA (label, 2025-03-01)'), 'the available fault current and its source');
+      assert.ok(text.includes('Rated below the available fault current (NEC 110.9): position 33.'), 'the breaker flagged');
+      assert.match(text, /Verified at the panel: \d+ of \d+ breakers\./);
       const layout = pdfText(file, true);
       for (let p = 1; p <= 42; p += 1) assert.match(layout, new RegExp(`(^|\\s)${p}\\s+[ABC]\\s`, 'm'), `position ${p} with its phase`);
       for (const c of circuits.filter((x) => x.status === 'in-use' && x.description)) {
