@@ -282,6 +282,7 @@ const PURPOSE_WORDS: Record<Photo['purpose'], string> = {
   visible: 'Visible-light photo',
   finding: 'Finding photo',
   repair: 'Repair photo',
+  equipment: 'Equipment photo',
 };
 
 /** The photos whose bytes have not reached the server, oldest first (the Sync tab). */

@@ -57,9 +57,32 @@ export interface DemoCircuit {
   feedsPanelKey?: string;
   handleLock: boolean;
   notes: string;
+  /** the breaker as marked (NEC 110.9); absent = not recorded */
+  interruptingKA?: number | null;
+  breakerMake?: string;
+  catalogueNumber?: string;
 }
 
-export interface DemoPanel {
+/** What a panel's checks record (issue 13): absent = not recorded. */
+export interface DemoPanelChecks {
+  availableFaultKA?: number | null;
+  availableFaultOn?: string | null;
+  availableFaultSource?: 'label' | 'utility' | 'engineer' | null;
+  seriesRated?: boolean;
+  seriesRatingNote?: string;
+  feederRatingA?: number | null;
+  peakDemand?: number | null;
+  peakDemandUnit?: 'A' | 'kVA' | null;
+  peakDemandBasis?: 'year' | '30-day' | null;
+  peakDemandOn?: string | null;
+  measuredA?: number | null;
+  measuredB?: number | null;
+  measuredC?: number | null;
+  measuredN?: number | null;
+  measuredOn?: string | null;
+}
+
+export interface DemoPanel extends DemoPanelChecks {
   /** stable key within the scenario, e.g. 'clinic-MDP' */
   key: string;
   tag: string;
@@ -240,6 +263,29 @@ function panel(p: PanelInput, circuits: DemoCircuit[]): DemoPanel {
   return { ...p, circuits: withSpaces(p.spaces, circuits) };
 }
 
+/**
+ * Every breaker of a panel marked alike (make, catalogue number by rating, interrupting rating),
+ * except the positions given, e.g. a replacement breaker of another series.
+ */
+function marked(
+  p: DemoPanel,
+  breaker: { make: string; catalogue: (ratingA: number, poles: number) => string; interruptingKA: number },
+  except: Record<number, Partial<Pick<DemoCircuit, 'interruptingKA' | 'breakerMake' | 'catalogueNumber' | 'notes'>>> = {},
+): DemoPanel {
+  const circuits = p.circuits.map((c) =>
+    c.status === 'space' || c.ratingA === null
+      ? c
+      : {
+          ...c,
+          interruptingKA: breaker.interruptingKA,
+          breakerMake: breaker.make,
+          catalogueNumber: breaker.catalogue(c.ratingA, c.poles),
+          ...except[c.position],
+        },
+  );
+  return { ...p, circuits };
+}
+
 const UPSIZED = 'Upsized to 10 AWG for voltage drop on the long run.';
 
 // ---------------------------------------------------------------------------------------------
@@ -264,6 +310,9 @@ const clinicMDP = panel(
     model: '400 A main breaker, 30 sp, copper bus',
     installedOn: '2011-06-14',
     condition: 2,
+    availableFaultKA: 18,
+    availableFaultOn: '2024-09-12',
+    availableFaultSource: 'engineer',
   },
   [
     feeder(1, 3, 225, 'Panel LA (exam wing) feeder', 'clinic-LA', 35, {
@@ -291,7 +340,7 @@ const clinicMDP = panel(
   ],
 );
 
-const clinicLA = panel(
+const clinicLA = marked(panel(
   {
     key: 'clinic-LA',
     tag: 'LA',
@@ -309,6 +358,21 @@ const clinicLA = panel(
     model: '225 A main lugs, 42 sp',
     installedOn: '2011-06-14',
     condition: 2,
+    // invented figures: the 110.24 label at the panel, a year of demand from the utility's meter
+    // data, and one round of clamp readings
+    availableFaultKA: 14,
+    availableFaultOn: '2025-03-01',
+    availableFaultSource: 'label',
+    feederRatingA: 225,
+    peakDemand: 31.5,
+    peakDemandUnit: 'kVA',
+    peakDemandBasis: 'year',
+    peakDemandOn: '2026-10-31',
+    measuredA: 41.2,
+    measuredB: 38,
+    measuredC: 29.5,
+    measuredN: 12.4,
+    measuredOn: '2026-11-18',
   },
   [
     // left column
@@ -368,7 +432,14 @@ const clinicLA = panel(
     spare(30, 20),
     ckt(32, 1, 20, 'Door operators & access control panel ACP-1', 'other', 300, 60),
   ],
-);
+), {
+  make: 'Halden Electric',
+  catalogue: (ratingA, poles) => `HB${poles}${String(ratingA).padStart(3, '0')}`,
+  interruptingKA: 22,
+}, {
+  // a replacement of another series: rated below the label's 14 kA, so the panel flags it (NEC 110.9)
+  33: { interruptingKA: 10, breakerMake: 'Corve', catalogueNumber: 'CQ120', notes: 'Replacement breaker, 2019.' },
+});
 
 const clinicLB = panel(
   {

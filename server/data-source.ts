@@ -10,6 +10,7 @@ import { Access1765300000000 } from './migrations/1765300000000-access';
 import { ExactNumbers1765410000000 } from './migrations/1765410000000-exact-numbers';
 import { ReplayGuardPerUser1765420000000 } from './migrations/1765420000000-replay-guard-per-user';
 import { Judgements1765413000000 } from './migrations/1765413000000-judgements';
+import { PanelChecks1765430000000 } from './migrations/1765430000000-panel-checks';
 
 export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
   return new DataSource({
@@ -25,6 +26,7 @@ export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
       ExactNumbers1765410000000,
       Judgements1765413000000,
       ReplayGuardPerUser1765420000000,
+      PanelChecks1765430000000,
     ],
     synchronize: false,
     logging: false,

@@ -57,6 +57,17 @@ export const MATERIALS = ['Cu', 'Al'] as const;
 export type ConductorMaterial = (typeof MATERIALS)[number];
 
 export const INSULATION_TEMPS_C = [60, 75, 90] as const;
+
+/** Where a panel's available fault current was taken from (NEC 110.24 label, the utility, an engineer's study). */
+export const FAULT_SOURCES = ['label', 'utility', 'engineer'] as const;
+export type FaultSource = (typeof FAULT_SOURCES)[number];
+export const FAULT_SOURCE_LABELS: Record<FaultSource, string> = { label: 'label', utility: 'utility', engineer: 'engineer' };
+/** NEC 220.87: a year of demand data, or a 30-day recording of 15-minute averages. */
+export const DEMAND_BASES = ['year', '30-day'] as const;
+export type DemandBasisKind = (typeof DEMAND_BASES)[number];
+export const DEMAND_BASIS_LABELS: Record<DemandBasisKind, string> = { year: '12 months', '30-day': '30 days recorded' };
+export const DEMAND_UNITS = ['A', 'kVA'] as const;
+export type DemandUnit = (typeof DEMAND_UNITS)[number];
 export type InsulationTempC = (typeof INSULATION_TEMPS_C)[number];
 
 export const PANEL_KINDS = ['panelboard', 'switchboard', 'load-centre'] as const;

@@ -28,7 +28,14 @@ export type FieldMeta = Record<string, FieldStamp>;
  * its pole count only make sense as a pair (a 2-pole at 5 is not a 1-pole at 5 plus a 2-pole
  * somewhere). A write to a group is decided once for the whole group and stamps every member.
  */
-export const FIELD_GROUPS: readonly (readonly string[])[] = [['position', 'poles']];
+export const FIELD_GROUPS: readonly (readonly string[])[] = [
+  ['position', 'poles'],
+  // a panel's clamp readings are one set taken on one day: mixing two sets would show a neutral
+  // that no one measured against phases of another day
+  ['measuredA', 'measuredB', 'measuredC', 'measuredN', 'measuredOn'],
+  // who verified a breaker at the panel and when
+  ['verifiedOn', 'verifiedBy'],
+];
 
 /** A field write as it reaches the merge: one mutation's stamp, device and field values. */
 export interface FieldWrite {

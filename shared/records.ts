@@ -99,9 +99,19 @@ export const STATUS_LABELS: Record<DeficiencyStatus, string> = {
   deferred: 'Deferred',
 };
 
-export const PHOTO_PARENTS = ['reading', 'deficiency'] as const;
-/** thermal / visible images of a reading; a finding's picture; evidence of a repair */
-export const PHOTO_PURPOSES = ['thermal', 'visible', 'finding', 'repair'] as const;
+export const PHOTO_PARENTS = ['reading', 'deficiency', 'circuit', 'panel'] as const;
+/**
+ * thermal / visible images of a reading; a finding's picture; evidence of a repair; a picture of
+ * the equipment itself (a breaker's marking, a panel's labels)
+ */
+export const PHOTO_PURPOSES = ['thermal', 'visible', 'finding', 'repair', 'equipment'] as const;
+/** The purposes a photo of each parent may have. */
+export const PHOTO_PURPOSES_OF: Record<(typeof PHOTO_PARENTS)[number], readonly (typeof PHOTO_PURPOSES)[number][]> = {
+  reading: ['thermal', 'visible'],
+  deficiency: ['finding', 'repair'],
+  circuit: ['equipment'],
+  panel: ['equipment'],
+};
 export const PHOTO_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'image/heic'] as const;
 export type PhotoType = (typeof PHOTO_TYPES)[number];
 /** largest photo the server takes, bytes (a 2000 px JPEG is well under 1 MB) */
@@ -170,6 +180,15 @@ const readingFieldsBase = z.object({
    * difference is judged and no load correction applies [CP]
    */
   duringTestPulse: z.boolean({ error: 'yes or no' }),
+  /**
+   * what the camera was set to and where it stood: emissivity and reflected temperature decide the
+   * temperature it shows; distance and the camera say whether the spot was resolved (the image is
+   * judged on temperatureC, the component's own temperature as the camera gave it)
+   */
+  emissivity: num('').min(0.01, 'at least 0.01').max(1, 'at most 1').nullable(),
+  reflectedC: num('°C').min(-40, 'at least −40 °C').max(1500, 'at most 1500 °C').nullable(),
+  distanceM: num('metres').positive('must be more than 0').max(100, 'at most 100 m').nullable(),
+  camera: text(120),
   // torque
   /** 'main' for the main lugs or main breaker; else the circuit's terminal */
   fastener: text(120),
@@ -254,6 +273,10 @@ export const readingCreateBody = readingFieldsBase
     loadA: readingShape.loadA.default(null),
     referenceLoadA: readingShape.referenceLoadA.default(null),
     duringTestPulse: readingShape.duringTestPulse.default(false),
+    emissivity: readingShape.emissivity.default(null),
+    reflectedC: readingShape.reflectedC.default(null),
+    distanceM: readingShape.distanceM.default(null),
+    camera: readingShape.camera.default(''),
     fastener: readingShape.fastener.default(''),
     specified: readingShape.specified.default(null),
     unit: readingShape.unit.default(null),

@@ -5,6 +5,9 @@
 import { z } from 'zod';
 import {
   BREAKER_TYPES,
+  DEMAND_BASES,
+  DEMAND_UNITS,
+  FAULT_SOURCES,
   CIRCUIT_STATUSES,
   CONDUCTOR_SIZES,
   EQUIPMENT_CONDITIONS,
@@ -22,6 +25,15 @@ const amps = z
   .int('whole amperes')
   .positive('must be more than 0')
   .max(6000, 'at most 6000 A');
+const kiloAmps = z
+  .number({ error: 'must be a number of kA' })
+  .positive('must be more than 0')
+  .max(200, 'at most 200 kA');
+/** a clamp-meter reading, A */
+const measuredAmps = z
+  .number({ error: 'must be a number of amperes' })
+  .min(0, 'cannot be negative')
+  .max(10000, 'at most 10000 A');
 const literalUnion = <T extends readonly (string | number)[]>(values: T, what: string) =>
   z.literal(values, { error: `${what}: one of ${values.join(', ')}` });
 
@@ -106,12 +118,34 @@ const panelFieldsBase = z.object({
   busRatingA: amps,
   /** null = main lugs only */
   mainRatingA: amps.nullable(),
-  shortCircuitKA: z
-    .number({ error: 'must be a number of kA' })
-    .positive('must be more than 0')
-    .max(200, 'at most 200 kA')
-    .nullable()
-    ,
+  shortCircuitKA: kiloAmps.nullable(),
+  /**
+   * maximum available fault current at the line terminals, kA — recorded from the NEC 110.24 label,
+   * the utility or an engineer's study, never computed (with its date and source)
+   */
+  availableFaultKA: kiloAmps.nullable(),
+  availableFaultOn: isoDate.nullable(),
+  availableFaultSource: literalUnion(FAULT_SOURCES, 'source').nullable(),
+  /** the panel is marked as part of a tested series combination (NEC 240.86), and what the marking says */
+  seriesRated: z.boolean({ error: 'yes or no' }),
+  seriesRatingNote: text(300),
+  /** the feeder's overcurrent device, A (NEC 220.87 compares against the lower of it and the panel) */
+  feederRatingA: amps.nullable(),
+  /** highest measured demand (NEC 220.87): its figure, unit, the period it covers and the period's end */
+  peakDemand: z
+    .number({ error: 'must be a number' })
+    .min(0, 'cannot be negative')
+    .max(100000, 'too large')
+    .nullable(),
+  peakDemandUnit: literalUnion(DEMAND_UNITS, 'unit').nullable(),
+  peakDemandBasis: literalUnion(DEMAND_BASES, 'period').nullable(),
+  peakDemandOn: isoDate.nullable(),
+  /** clamp-meter readings per phase and neutral, taken together (one stamp: shared/merge.ts) */
+  measuredA: measuredAmps.nullable(),
+  measuredB: measuredAmps.nullable(),
+  measuredC: measuredAmps.nullable(),
+  measuredN: measuredAmps.nullable(),
+  measuredOn: isoDate.nullable(),
   /**
    * the temperature the panel's terminations are listed and marked for; null = not known, and NEC
    * 110.14(C)(1) then takes 60 °C for circuits of 100 A or less or 14–1 AWG
@@ -131,6 +165,42 @@ const panelFieldsBase = z.object({
 });
 export const panelFields = panelFieldsBase;
 const panelShape = panelFieldsBase.shape;
+
+type PanelRuleShape = Pick<
+  z.infer<typeof panelFieldsBase>,
+  | 'availableFaultKA' | 'availableFaultOn' | 'availableFaultSource'
+  | 'peakDemand' | 'peakDemandUnit' | 'peakDemandBasis' | 'peakDemandOn'
+  | 'measuredA' | 'measuredB' | 'measuredC' | 'measuredN' | 'measuredOn'
+>;
+/** The fields panelRuleErrors looks at: a patch touching none of them needs no check. */
+export const PANEL_RULE_FIELDS: readonly string[] = [
+  'availableFaultKA', 'availableFaultOn', 'availableFaultSource',
+  'peakDemand', 'peakDemandUnit', 'peakDemandBasis', 'peakDemandOn',
+  'measuredA', 'measuredB', 'measuredC', 'measuredN', 'measuredOn',
+];
+
+/**
+ * Rules between a panel's fields: a recorded figure is only worth its context. A fault current
+ * without its date and source cannot be checked against a newer label (NEC 110.24 asks for the
+ * date); a measured peak needs its unit and period (220.87 allows a year, or 30 days recorded);
+ * clamp readings need the day they were taken. Returns `{ field: message }`.
+ */
+export function panelRuleErrors(p: PanelRuleShape): Record<string, string> {
+  const out: Record<string, string> = {};
+  if (p.availableFaultKA !== null) {
+    if (p.availableFaultOn === null) out.availableFaultOn = 'the date on the label or of the study (NEC 110.24)';
+    if (p.availableFaultSource === null) out.availableFaultSource = 'say where the figure comes from: label, utility or engineer';
+  }
+  if (p.peakDemand !== null) {
+    if (p.peakDemandUnit === null) out.peakDemandUnit = 'A or kVA';
+    if (p.peakDemandBasis === null) out.peakDemandBasis = 'a year of data, or 30 days recorded';
+    if (p.peakDemandOn === null) out.peakDemandOn = 'the date the period ended';
+  }
+  const clamped = [p.measuredA, p.measuredB, p.measuredC, p.measuredN].some((x) => x !== null);
+  if (clamped && p.measuredOn === null) out.measuredOn = 'the date of the clamp readings';
+  return out;
+}
+
 /** Defaults apply when a panel is created, never to a patch (a patch names what changes). */
 export const panelCreateBody = panelFieldsBase.extend({
   id: idSchema.optional(),
@@ -138,6 +208,21 @@ export const panelCreateBody = panelFieldsBase.extend({
   kind: panelShape.kind.default('panelboard'),
   mainRatingA: panelShape.mainRatingA.default(null),
   shortCircuitKA: panelShape.shortCircuitKA.default(null),
+  availableFaultKA: panelShape.availableFaultKA.default(null),
+  availableFaultOn: panelShape.availableFaultOn.default(null),
+  availableFaultSource: panelShape.availableFaultSource.default(null),
+  seriesRated: panelShape.seriesRated.default(false),
+  seriesRatingNote: panelShape.seriesRatingNote.default(''),
+  feederRatingA: panelShape.feederRatingA.default(null),
+  peakDemand: panelShape.peakDemand.default(null),
+  peakDemandUnit: panelShape.peakDemandUnit.default(null),
+  peakDemandBasis: panelShape.peakDemandBasis.default(null),
+  peakDemandOn: panelShape.peakDemandOn.default(null),
+  measuredA: panelShape.measuredA.default(null),
+  measuredB: panelShape.measuredB.default(null),
+  measuredC: panelShape.measuredC.default(null),
+  measuredN: panelShape.measuredN.default(null),
+  measuredOn: panelShape.measuredOn.default(null),
   terminationTempC: panelShape.terminationTempC.default(null),
   fedFromPanelId: panelShape.fedFromPanelId.default(null),
   fedFromPosition: panelShape.fedFromPosition.default(null),
@@ -145,6 +230,8 @@ export const panelCreateBody = panelFieldsBase.extend({
   model: panelShape.model.default(''),
   installedOn: panelShape.installedOn.default(null),
   condition: panelShape.condition.default(1),
+}).superRefine((p, ctx) => {
+  for (const [field, message] of Object.entries(panelRuleErrors(p))) ctx.addIssue({ code: 'custom', path: [field], message });
 });
 export const panelPatchBody = panelFieldsBase.partial().strict();
 export type PanelCreateBody = z.infer<typeof panelCreateBody>;
@@ -160,6 +247,21 @@ export const panelSchema = z.object({
   busRatingA: z.number(),
   mainRatingA: z.number().nullable(),
   shortCircuitKA: z.number().nullable(),
+  availableFaultKA: z.number().nullable(),
+  availableFaultOn: z.string().nullable(),
+  availableFaultSource: z.enum(FAULT_SOURCES).nullable(),
+  seriesRated: z.boolean(),
+  seriesRatingNote: z.string(),
+  feederRatingA: z.number().nullable(),
+  peakDemand: z.number().nullable(),
+  peakDemandUnit: z.enum(DEMAND_UNITS).nullable(),
+  peakDemandBasis: z.enum(DEMAND_BASES).nullable(),
+  peakDemandOn: z.string().nullable(),
+  measuredA: z.number().nullable(),
+  measuredB: z.number().nullable(),
+  measuredC: z.number().nullable(),
+  measuredN: z.number().nullable(),
+  measuredOn: z.string().nullable(),
   terminationTempC: z.union([z.literal(60), z.literal(75), z.literal(90)]).nullable(),
   spaces: z.number(),
   fedFromPanelId: z.string().nullable(),
@@ -211,7 +313,35 @@ const circuitFieldsBase = z.object({
   notes: longText(2000),
   /** the time-current band of the organisation's library its trip tests are judged against */
   bandId: idSchema.nullable(),
+  /** the breaker's interrupting rating, kA (NEC 110.9), as marked on it */
+  interruptingKA: kiloAmps.nullable(),
+  /** the breaker's maker and catalogue number, as marked on it */
+  breakerMake: text(120),
+  catalogueNumber: text(120),
+  /** ambient temperature where the conductors run, °C (NEC Table 310.15(B)(1)); null = 30 °C */
+  ambientC: z
+    .number({ error: 'must be a number of °C' })
+    .min(-40, 'at least −40 °C')
+    .max(80, 'at most 80 °C')
+    .nullable(),
+  /** current-carrying conductors in the raceway or cable (NEC Table 310.15(C)(1)); null = 3 or fewer */
+  currentCarrying: z
+    .number({ error: 'must be a number' })
+    .int('a whole number')
+    .min(1, 'at least 1')
+    .max(100, 'at most 100')
+    .nullable(),
+  /** traced at the panel: when and by whom (a person of the organisation); both null = not verified */
+  verifiedOn: isoDate.nullable(),
+  verifiedBy: idSchema.nullable(),
 });
+
+/** "Verified at the panel" is a date and a person together, or neither. */
+export function verificationErrors(c: { verifiedOn: string | null; verifiedBy: string | null }): Record<string, string> {
+  if (c.verifiedOn !== null && c.verifiedBy === null) return { verifiedBy: 'say who verified it at the panel' };
+  if (c.verifiedOn === null && c.verifiedBy !== null) return { verifiedOn: 'the date it was verified at the panel' };
+  return {};
+}
 
 /**
  * Rules between a circuit's fields that no single field's schema can state; applied to a created
@@ -229,6 +359,12 @@ export function circuitRuleErrors(c: {
 
 function circuitCrossChecks(c: { status: string; ratingA: number | null }, ctx: z.RefinementCtx) {
   for (const [field, message] of Object.entries(circuitRuleErrors(c))) {
+    ctx.addIssue({ code: 'custom', path: [field], message });
+  }
+}
+
+function circuitVerificationChecks(c: { verifiedOn: string | null; verifiedBy: string | null }, ctx: z.RefinementCtx) {
+  for (const [field, message] of Object.entries(verificationErrors(c))) {
     ctx.addIssue({ code: 'custom', path: [field], message });
   }
 }
@@ -256,8 +392,16 @@ export const circuitCreateBody = circuitFieldsBase
     handleLock: circuitShape.handleLock.default(false),
     notes: circuitShape.notes.default(''),
     bandId: circuitShape.bandId.default(null),
+    interruptingKA: circuitShape.interruptingKA.default(null),
+    breakerMake: circuitShape.breakerMake.default(''),
+    catalogueNumber: circuitShape.catalogueNumber.default(''),
+    ambientC: circuitShape.ambientC.default(null),
+    currentCarrying: circuitShape.currentCarrying.default(null),
+    verifiedOn: circuitShape.verifiedOn.default(null),
+    verifiedBy: circuitShape.verifiedBy.default(null),
   })
-  .superRefine(circuitCrossChecks);
+  .superRefine(circuitCrossChecks)
+  .superRefine(circuitVerificationChecks);
 export const circuitPatchBody = circuitFieldsBase.partial().strict();
 export type CircuitCreateBody = z.infer<typeof circuitCreateBody>;
 export type CircuitPatchBody = z.infer<typeof circuitPatchBody>;
@@ -284,6 +428,13 @@ export const circuitSchema = z.object({
   handleLock: z.boolean(),
   notes: z.string(),
   bandId: z.string().nullable(),
+  interruptingKA: z.number().nullable(),
+  breakerMake: z.string(),
+  catalogueNumber: z.string(),
+  ambientC: z.number().nullable(),
+  currentCarrying: z.number().nullable(),
+  verifiedOn: z.string().nullable(),
+  verifiedBy: z.string().nullable(),
 });
 export type Circuit = z.infer<typeof circuitSchema>;
 

@@ -18,7 +18,8 @@ import { Button } from '@/components/ui/button';
 import { ChoiceField, FieldRow, FormProblems, TextField, ToggleField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { Text } from '@/components/ui/text';
-import { useFormDraft } from '@/components/ui/use-form-draft';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
+import { BreakerFields, breakerDraft, breakerValues, type BreakerDraft } from './breaker-fields';
 import { colours, radii, space } from '@/components/ui/theme';
 
 export const BREAKER_TYPE_LABELS: Record<BreakerType, string> = {
@@ -64,9 +65,16 @@ export const NEW_CIRCUIT: CircuitFields = {
   handleLock: false,
   notes: '',
   bandId: null,
+  interruptingKA: null,
+  breakerMake: '',
+  catalogueNumber: '',
+  ambientC: null,
+  currentCarrying: null,
+  verifiedOn: null,
+  verifiedBy: null,
 };
 
-interface Draft {
+interface Draft extends BreakerDraft {
   position: string;
   poles: 1 | 2 | 3;
   ratingA: string;
@@ -88,6 +96,7 @@ interface Draft {
 
 function toDraft(c: CircuitFields): Draft {
   return {
+    ...breakerDraft(c),
     position: textOf(c.position),
     poles: c.poles,
     ratingA: textOf(c.ratingA),
@@ -130,6 +139,7 @@ function fromDraft(d: Draft, base: CircuitFields): CircuitFields {
     notes: d.notes,
     // a band belongs to a breaker: a space has none
     bandId: d.status === 'space' ? null : d.bandId,
+    ...breakerValues(d),
   };
 }
 
@@ -279,6 +289,7 @@ export function CircuitForm({ panel, others, initial, isNew, onSubmit, onDelete 
             {...field('terminationTempC')}
             hint="What this breaker’s terminals are listed and marked for, where it differs from the panel (NEC 110.14(C))."
           />
+          <BreakerFields bind={bindForm(draft, set, errors)} />
           <ToggleField label="Handle lock fitted" {...field('handleLock')} />
           {numberOrNull(draft.ratingA) ? (
             <BandPicker

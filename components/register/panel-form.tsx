@@ -5,7 +5,8 @@ import { fieldErrors, panelCreateBody, type Circuit, type Panel, type PanelPatch
 import { Button } from '@/components/ui/button';
 import { ChoiceField, FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
-import { useFormDraft } from '@/components/ui/use-form-draft';
+import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
+import { PanelCheckFields, panelCheckDraft, panelCheckValues } from './panel-check-fields';
 import { space } from '@/components/ui/theme';
 
 const KIND_LABELS: Record<PanelKind, string> = {
@@ -22,7 +23,8 @@ export interface PanelFormProps {
 }
 
 export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
-  const { draft, errors, setErrors, text, field } = useFormDraft(() => ({
+  const { draft, set, errors, setErrors, text, field } = useFormDraft(() => ({
+    ...panelCheckDraft(panel),
     tag: panel.tag,
     location: panel.location,
     kind: panel.kind,
@@ -42,6 +44,7 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
   const submit = () => {
     const candidate = {
       ...draft,
+      ...panelCheckValues(draft),
       busRatingA: numberOrNull(draft.busRatingA),
       mainRatingA: numberOrNull(draft.mainRatingA),
       shortCircuitKA: numberOrNull(draft.shortCircuitKA),
@@ -104,6 +107,7 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
         <TextField label="Short-circuit rating (kA)" {...text('shortCircuitKA')} keyboardType="decimal-pad" mono />
         <TextField label="Installed on" {...text('installedOn')} placeholder="YYYY-MM-DD" mono />
       </FieldRow>
+      <PanelCheckFields bind={bindForm(draft, set, errors)} system={draft.system} />
       <FieldRow>
         <TextField label="Maker" {...text('maker')} />
         <TextField label="Model" {...text('model')} />

@@ -76,4 +76,29 @@ export class Circuit extends SyncColumns {
   /** the time-current band (organisation library) its trip tests are judged against */
   @Column('uuid', { name: 'band_id', nullable: true })
   bandId: string | null;
+
+  /** the breaker's interrupting rating, kA (NEC 110.9) */
+  @Column('double precision', { name: 'interrupting_ka', nullable: true })
+  interruptingKA: number | null;
+
+  @Column('text', { name: 'breaker_make', default: '' })
+  breakerMake: string;
+
+  @Column('text', { name: 'catalogue_number', default: '' })
+  catalogueNumber: string;
+
+  /** ambient where the conductors run, °C (NEC Table 310.15(B)(1)); null = 30 °C */
+  @Column('double precision', { name: 'ambient_c', nullable: true })
+  ambientC: number | null;
+
+  /** current-carrying conductors together (NEC Table 310.15(C)(1)); null = 3 or fewer */
+  @Column('smallint', { name: 'current_carrying', nullable: true })
+  currentCarrying: number | null;
+
+  /** traced at the panel on this date by this person of the organisation */
+  @Column('date', { name: 'verified_on', nullable: true })
+  verifiedOn: string | null;
+
+  @Column('uuid', { name: 'verified_by', nullable: true })
+  verifiedBy: string | null;
 }

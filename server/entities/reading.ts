@@ -50,6 +50,18 @@ export class Reading extends SyncColumns {
   @Column('boolean', { name: 'during_test_pulse', default: false })
   duringTestPulse: boolean;
 
+  @Column('double precision', { nullable: true })
+  emissivity: number | null;
+
+  @Column('double precision', { name: 'reflected_c', nullable: true })
+  reflectedC: number | null;
+
+  @Column('double precision', { name: 'distance_m', nullable: true })
+  distanceM: number | null;
+
+  @Column('text', { default: '' })
+  camera: string;
+
   @Column('text', { default: '' })
   fastener: string;
 

@@ -24,6 +24,11 @@ const FREE_CIRCUIT_FIELDS: ReadonlySet<string> = new Set([
   'lengthFt',
   'handleLock',
   'notes',
+  'interruptingKA',
+  'breakerMake',
+  'catalogueNumber',
+  'ambientC',
+  'currentCarrying',
 ]);
 
 /**

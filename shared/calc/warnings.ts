@@ -56,6 +56,10 @@ export interface WarningCircuit {
   loadKind?: LoadKind | null;
   /** this breaker's termination rating when it differs from the panel's; null/absent: the panel's */
   terminationTempC?: InsulationTempC | null;
+  /** ambient where the conductors run, °C (Table 310.15(B)(1)); null/absent: 30 °C */
+  ambientC?: number | null;
+  /** current-carrying conductors together (Table 310.15(C)(1)); null/absent: 3 or fewer */
+  currentCarrying?: number | null;
 }
 
 export interface WarningPanel {
@@ -107,20 +111,24 @@ export function circuitWarnings(circuit: WarningCircuit, panel: WarningPanel): C
           material,
           insulationTempC: circuit.insulationTempC,
           terminalTempC: circuit.terminationTempC ?? panel.terminationTempC ?? null,
+          ambientC: circuit.ambientC ?? null,
+          currentCarrying: circuit.currentCarrying ?? null,
         });
         if (check.ampacityA === null) {
+          // an ambient the insulation may not be used at says so; otherwise the size is not in the table
+          const notAllowed = check.reasons.find((r) => r.includes('310.15(B)(1)'));
           warnings.push({
             code: 'conductor-not-in-table',
             severity: 'warning',
-            message: `${wire} has no ampacity in NEC Table 310.16: check the conductor size.`,
+            message: notAllowed ?? `${wire} has no ampacity in NEC Table 310.16: check the conductor size.`,
           });
         } else if (check.overAmpacity) {
           warnings.push({
             code: 'conductor-too-small',
             severity: conductorSeverity,
             message:
-              `${wire} is too small for a ${ratingA} A breaker: it is good for ${check.ampacityA} A ` +
-              `at ${check.tempC} °C (NEC Table 310.16; ${check.terminationBasis})` +
+              `${wire} is too small for a ${ratingA} A breaker: it is good for ${Math.round(check.ampacityA * 10) / 10} A ` +
+              `at ${check.tempC} °C (NEC Table 310.16${check.correctionBasis ? `, ${check.correctionBasis}` : ''}; ${check.terminationBasis})` +
               (check.nextSizeUpApplied ? `, so ${check.allowedByAmpacityA} A at most with the next size up (240.4(B))` : '') +
               '. Fit a smaller breaker or a larger wire.' + motorNote,
           });

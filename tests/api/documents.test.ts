@@ -136,6 +136,10 @@ describe('GET /api/panels/:id/directory.pdf (NEC 408.4(A) directory)', () => {
       assert.ok(text.includes(`Panel ${panel.tag}`), 'the tag');
       if (panel.location) assert.ok(text.includes(panel.location), 'the location');
       assert.ok(text.includes('208Y/120 V 3-phase 4W'), 'the system label (SYSTEM_INFO, φ spelt out: the fonts lack it)');
+      // issue 13 items 7 and 13: the label's fault current at the door, and what is rated below it
+      assert.ok(text.includes('14 kA (label, 2025-03-01)'), 'the available fault current and its source');
+      assert.ok(text.includes('Rated below the available fault current (NEC 110.9): position 33.'), 'the breaker flagged');
+      assert.match(text, /Verified at the panel: \d+ of \d+ breakers\./);
       const layout = pdfText(file, true);
       for (let p = 1; p <= 42; p += 1) assert.match(layout, new RegExp(`(^|\\s)${p}\\s+[ABC]\\s`, 'm'), `position ${p} with its phase`);
       for (const c of circuits.filter((x) => x.status === 'in-use' && x.description)) {
@@ -229,6 +233,15 @@ describe('GET /api/inspections/:id/report.pdf', () => {
     assert.ok(text.includes('125 % of continuous + non-continuous'), 'the sizing rule');
     assert.doesNotMatch(text, /· demand \d|phase demand/);
     assert.ok(text.includes(squash(SAFETY_CAUTION)), 'the safety caution, whole');
+    // issue 13 items 7, 9, 11, 13: the demo's LA records a 14 kA label and a 10 kA breaker at 33
+    // (NEC 110.9), clamp readings (neutral by phasor sum), and the hot lug's own temperature
+    // against its 75 °C terminations (110.14(C))
+    assert.ok(text.includes('Available fault current 14 kA (label, 2025-03-01): 1 rated below it (NEC 110.9, 110.10).'), 'the fault check');
+    assert.ok(text.includes('Position 33 (20 A) interrupts 10 kA; 14 kA is available (NEC 110.9).'), 'the breaker flagged');
+    assert.match(text, /Verified at the panel: \d+ of \d+ breakers\./);
+    assert.ok(text.includes('Measured 2026-11-18: A 41.2 A · B 38 A · C 29.5 A · N 12.4 A · neutral from the phases 10.5 A'), 'clamp readings and neutral');
+    assert.ok(text.includes('non-linear loads'), 'the neutral caution');
+    assert.ok(text.includes('Component temperature:'), 'the component against its rating');
   });
 
   it('says NOT SIGNED for an open inspection', async () => {

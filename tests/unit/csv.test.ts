@@ -13,6 +13,10 @@ import {
 } from '../../shared/csv';
 import type { CircuitFields } from '../../shared/schemas';
 
+/** the breaker identity and corrections the CSV does not carry */
+const BREAKER_NOT_RECORDED = {
+  interruptingKA: null, breakerMake: '', catalogueNumber: '', ambientC: null, currentCarrying: null, verifiedOn: null, verifiedBy: null,
+};
 const BAND = { id: '00000000-0000-7000-8000-0000000000b1', label: 'Maker curve 20 A thermal-magnetic' };
 
 /** A demo panel's circuits as the app holds them (ids for the panels fed, by key). */
@@ -23,6 +27,7 @@ function demoSchedule(panel: DemoPanel, idOf: (key: string) => string): Existing
       ...rest,
       id: `c-${panel.key}-${i}`,
       feedsPanelId: feedsPanelKey ? idOf(feedsPanelKey) : null,
+      ...BREAKER_NOT_RECORDED,
       bandId: null,
     };
   });

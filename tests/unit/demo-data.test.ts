@@ -1,4 +1,5 @@
 import { describe, it } from 'node:test';
+import { panelFaultCheck } from '../../shared/panel-checks';
 import assert from 'node:assert/strict';
 
 import {
@@ -265,5 +266,18 @@ describe('demo scenario', () => {
       assert.ok(u.name.length > 0);
     }
     assert.equal(DEMO_PASSWORD, 'ampwright-demo');
+  });
+});
+
+describe('demo fault current (issue 13 item 7): one breaker flagged', () => {
+  it('clinic LA: 14 kA on the label, every breaker 22 kA but the 10 kA replacement at 33 (NEC 110.9 [V])', () => {
+    const la = DEMO_BUILDINGS.flatMap((b) => b.panels).find((p) => p.key === 'clinic-LA')!;
+    const check = panelFaultCheck(
+      { availableFaultKA: la.availableFaultKA ?? null, shortCircuitKA: la.shortCircuitKA, seriesRated: false },
+      la.circuits.map((c) => ({ ...c, id: String(c.position), interruptingKA: c.interruptingKA ?? null })),
+    );
+    assert.ok(check.judged);
+    if (!check.judged) return;
+    assert.deepEqual(check.findings.map((f) => f.id), ['33']);
   });
 });

@@ -31,6 +31,10 @@ export interface ReadingDraft {
   loadA: string;
   referenceLoadA: string;
   duringTestPulse: boolean;
+  emissivity: string;
+  reflectedC: string;
+  distanceM: string;
+  camera: string;
   fastener: string;
   specified: string;
   unit: ReadingFields['unit'];
@@ -61,6 +65,10 @@ export function toReadingDraft(r: ReadingFields, unit: TemperatureUnit = 'C'): R
     referenceLoadA: textOf(r.referenceLoadA),
     // a copy persisted before the field existed has none
     duringTestPulse: r.duringTestPulse ?? false,
+    emissivity: textOf(r.emissivity),
+    reflectedC: textOf(r.reflectedC),
+    distanceM: textOf(r.distanceM),
+    camera: r.camera ?? '',
     // "main" is the stored name of the main lugs / main breaker, not something the user typed
     fastener: r.fastener === 'main' ? '' : r.fastener,
     specified: textOf(r.specified),
@@ -95,6 +103,10 @@ export function fromReadingDraft(d: ReadingDraft, base: ReadingFields): ReadingF
         loadA: numberOrNull(d.loadA),
         referenceLoadA: numberOrNull(d.referenceLoadA),
         duringTestPulse: d.duringTestPulse,
+        emissivity: numberOrNull(d.emissivity),
+        reflectedC: numberOrNull(d.reflectedC),
+        distanceM: numberOrNull(d.distanceM),
+        camera: d.camera,
       };
     case 'torque': {
       const fastener = d.fastener.trim();

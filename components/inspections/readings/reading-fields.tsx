@@ -20,6 +20,7 @@ import { fallbackIn, type ReadingDraft } from './reading-draft';
 import { ReadingCircuitPicker } from './reading-circuit-picker';
 import { MakerValueCheck, SCREW_HINT, SCREW_LABELS, ScrewSizeField, TestPulseField } from './reading-extras';
 import { Text } from '@/components/ui/text';
+import { ThermographyFields } from './thermography-fields';
 import type { DraftSetter, FormBinders } from '@/components/ui/use-form-draft';
 import { colours, radii, space } from '@/components/ui/theme';
 import { tempInputText, unitSymbol } from '@/shared/units';
@@ -113,6 +114,7 @@ export function ThermalFields({ draft, set, errors, text, field, panel, circuits
         </Text>
       )}
       <TestPulseField {...field('duringTestPulse')} />
+      <ThermographyFields text={text} draft={draft} panel={panel} circuits={circuits} />
     </>
   );
 }

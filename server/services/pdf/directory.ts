@@ -11,6 +11,7 @@ import { Building, Circuit, Panel, User } from '../../entities';
 import { NotFoundError } from '../../http/errors';
 import { COPPER, FONT, INK, RULE, SOFT, dayOf, finish, line, newDocument, printable, type Paper } from './fonts';
 import { drawQr } from './qr';
+import { faultSourceText, panelFaultCheck } from '../../../shared/panel-checks';
 
 const live = { deletedAt: IsNull() };
 
@@ -104,6 +105,8 @@ export async function directoryPdf(
     ['Fed from', feeder ? `${feeder.tag}${panel.fedFromPosition ? ` position ${panel.fedFromPosition}` : ''}` : 'not recorded'],
     ['Main', panel.mainRatingA ? `${panel.mainRatingA} A main breaker` : 'main lugs only'],
     ['Bus', `${panel.busRatingA} A`],
+    // recorded from the NEC 110.24 label, the utility or a study: the door is where 110.24 puts it
+    ['Fault', panel.availableFaultKA ? `${panel.availableFaultKA} kA (${faultSourceText(panel) || 'source not recorded'})` : 'not recorded'],
   ];
   const factsX = margin + contentW * 0.58;
   const factsW = contentW * 0.42;
@@ -112,7 +115,7 @@ export async function directoryPdf(
     line(doc, label, factsX, fy, 52, FONT.bold, 9, SOFT);
     line(doc, value, factsX + 54, fy, factsW - 54, FONT.text, 9.5);
   });
-  y += 54;
+  y += 12 * facts.length + 6;
 
   // ---- footer (drawn first in our arithmetic so the rows know their room)
   const qrSize = 78;
@@ -168,9 +171,20 @@ export async function directoryPdf(
     tx, footerY + 52, tw, FONT.text, 7.5, SOFT,
   );
   line(doc, 'SPARE = breaker fitted, nothing connected. SPACE = no breaker in that position.', tx, footerY + 63, tw, FONT.text, 7.5, SOFT);
+  line(doc, panelChecksLine(panel, circuits), tx, footerY + 74, tw, FONT.bold, 7.5, INK);
 
   const pdf = await finish(doc);
   return { filename: `directory-${slug(panel.tag)}-${options.paper}.pdf`, pdf };
+}
+
+/** What the fault-current check flags (NEC 110.9/110.10) and how many breakers were traced at the panel. */
+function panelChecksLine(panel: Panel, circuits: readonly Circuit[]): string {
+  const check = panelFaultCheck(panel, circuits);
+  const breakers = circuits.filter((c) => c.status !== 'space');
+  const verified = `Verified at the panel: ${breakers.filter((c) => c.verifiedOn).length} of ${breakers.length} breakers.`;
+  if (!check.judged || check.findings.length === 0) return verified;
+  const positions = check.findings.map((f) => (f.id ? `position ${breakers.find((c) => c.id === f.id)?.position}` : 'the panel'));
+  return `Rated below the available fault current (NEC 110.9): ${positions.join(', ')}. ${verified}`;
 }
 
 export function slug(text: string): string {

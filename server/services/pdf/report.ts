@@ -28,6 +28,7 @@ import { slug } from './directory';
 import { drawBandPlot } from './band-plot';
 import { bandPlotView, plotTestOf } from '../../../shared/band-plot-words';
 import { formatTemp, type TemperatureUnit } from '../../../shared/units';
+import { componentTempText, panelChecksBlock, thermographyText, verifierNames } from './panel-checks';
 
 const MARGIN = 48;
 const THUMB_PT = 110;
@@ -225,6 +226,10 @@ export async function inspectionReportPdf(
     doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(readingTitle(r, circuit, panelById.get(r.panelId)), MARGIN, doc.y, { width });
     const m = measured(r, unit);
     if (m) doc.font(FONT.mono).fontSize(9).fillColor(SOFT).text(m, { width });
+    const camera = thermographyText(r, unit);
+    if (camera) doc.font(FONT.mono).fontSize(8.5).fillColor(SOFT).text(camera, { width });
+    const component = componentTempText(r, circuit, panelById.get(r.panelId));
+    if (component) doc.font(FONT.text).fontSize(9).fillColor(component.over ? PRIORITY_COLOURS[1] : INK).text(component.text, { width });
     tagLine(doc, verdictWords(a), a.priority ? PRIORITY_COLOURS[a.priority] : SOFT, a.summary);
     if (a.kind === 'thermal' && a.priority) doc.font(FONT.text).fontSize(9.5).fillColor(INK).text(`Action: ${a.action}`, { width });
     if (a.kind === 'thermal') for (const note of a.notes) doc.font(FONT.text).fontSize(9).fillColor(SOFT).text(note, { width });
@@ -288,7 +293,8 @@ export async function inspectionReportPdf(
   }
 
   // ---- load per panel
-  heading(doc, 'Panel load (from the schedule on record)');
+  heading(doc, 'Panel load and checks (from the schedule on record)');
+  const names = await verifierNames(ds.manager, record.circuits);
   for (const panel of panels) {
     keepTogether(doc, 70);
     const circuits = record.circuits.filter((c) => c.panelId === panel.id);
@@ -313,6 +319,7 @@ export async function inspectionReportPdf(
         'Only circuits with a recorded load count.',
       { width },
     );
+    panelChecksBlock(doc, panel, circuits, names, width);
     doc.moveDown(0.5);
   }
 

@@ -9,7 +9,7 @@ import { selectRows, updateChanged } from '../../services/bulk';
 import { live } from '../access';
 import { editedAfterDelete, insertConflicts, reportConflicts, type ConflictDraft, type Target } from '../conflicts';
 import { commitMerge, planMerge } from '../merge';
-import { bandProblem, bandsById, circuitProblems } from './circuit-rules';
+import { bandProblem, bandsById, circuitProblems, membershipsOf, verifierProblem } from './circuit-rules';
 import type { ItemOutcome, PatchItem, PatchPlan } from './types';
 
 /** One circuit patch of a run. */
@@ -76,6 +76,7 @@ export async function planCircuitPatches(items: readonly CircuitPatchItem[]): Pr
 
   const bands = await bandsById(em, items.map((i) => i.patch.bandId));
   const organisationOf = new Map(buildings.map((b) => [b.id, b.organisationId]));
+  const members = await membershipsOf(em, items.map((i) => i.patch.verifiedBy));
 
   const outcomes: ItemOutcome<Circuit>[] = [];
   const dirty = new Map<Circuit, Set<string>>();
@@ -108,6 +109,9 @@ export async function planCircuitPatches(items: readonly CircuitPatchItem[]): Pr
         if (plan.applied.includes('bandId')) {
           const bandId = plan.candidate.bandId;
           Object.assign(problems, bandProblem(bandId, bands.get(bandId ?? ''), organisationOf.get(circuit.buildingId)!));
+        }
+        if (plan.applied.includes('verifiedOn') || plan.applied.includes('verifiedBy')) {
+          Object.assign(problems, verifierProblem(plan.candidate, members, organisationOf.get(circuit.buildingId)!));
         }
         if (Object.keys(problems).length > 0) throw new ValidationError(problems);
       }

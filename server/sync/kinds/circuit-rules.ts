@@ -1,8 +1,8 @@
 import { In, type EntityManager } from 'typeorm';
 import { occupiedPositions, panelLayout } from '../../../shared/calc';
 import { SYSTEM_INFO } from '../../../shared/domain';
-import { circuitRuleErrors } from '../../../shared/schemas';
-import { Circuit, CurveBand, Panel } from '../../entities';
+import { circuitRuleErrors, verificationErrors } from '../../../shared/schemas';
+import { Circuit, CurveBand, Membership, Panel } from '../../entities';
 import { NotFoundError } from '../../http/errors';
 import { writableBuilding } from '../access';
 import type { WriteContext } from '../context';
@@ -87,3 +87,25 @@ export async function feedTarget(em: EntityManager, id: string | null | undefine
   return id ? em.findOne(Panel, { where: { id } }) : null;
 }
 
+
+/**
+ * "Verified at the panel" names a date and a person of the building's own organisation: another
+ * organisation's user id would print a stranger's name on this owner's directory.
+ */
+export function verifierProblem(
+  c: { verifiedOn: string | null; verifiedBy: string | null },
+  members: ReadonlySet<string>,
+  organisationId: string,
+): Record<string, string> {
+  const pair = verificationErrors(c);
+  if (Object.keys(pair).length > 0) return pair;
+  if (c.verifiedBy && !members.has(`${organisationId}:${c.verifiedBy}`)) return { verifiedBy: 'not a person of this organisation' };
+  return {};
+}
+
+/** `organisationId:userId` of every membership of the given users (for verifierProblem). */
+export async function membershipsOf(em: EntityManager, userIds: (string | null | undefined)[]): Promise<Set<string>> {
+  const wanted = [...new Set(userIds.filter((id): id is string => !!id))];
+  const rows = wanted.length ? await em.find(Membership, { where: { userId: In(wanted) } }) : [];
+  return new Set(rows.map((m) => `${m.organisationId}:${m.userId}`));
+}

@@ -10,7 +10,16 @@ import { insertConflicts, type ConflictDraft } from '../conflicts';
 import type { WriteContext } from '../context';
 import { refuseDuplicateId, stampNew, tombstone, untombstone } from '../merge';
 import { planCircuitPatches, type CircuitPatchItem } from './circuit-batch';
-import { ALL_CIRCUIT_FIELDS, bandProblem, bandsById, circuitProblems, feedTarget, writableCircuit } from './circuit-rules';
+import {
+  ALL_CIRCUIT_FIELDS,
+  bandProblem,
+  bandsById,
+  circuitProblems,
+  feedTarget,
+  membershipsOf,
+  verifierProblem,
+  writableCircuit,
+} from './circuit-rules';
 import { writablePanel } from './panel';
 import type { ItemOutcome, MutationHandlers, PatchPlanners } from './types';
 import { canMergeSetwise, mergeCircuitPatchesSetwise } from '../setwise-circuit';
@@ -38,6 +47,7 @@ export async function createCircuit(w: WriteContext, panelId: string, body: Circ
   const problems = {
     ...circuitProblems(panel, { id, ...fields }, ALL_CIRCUIT_FIELDS, siblings, fed),
     ...bandProblem(fields.bandId, bands.get(fields.bandId ?? ''), building.organisationId),
+    ...verifierProblem(fields, await membershipsOf(w.em, [fields.verifiedBy]), building.organisationId),
   };
   if (Object.keys(problems).length > 0) throw new ValidationError(problems);
   const circuit = w.em.create(Circuit, { id, panelId, buildingId: panel.buildingId, fieldMeta: {} });

@@ -75,7 +75,7 @@ export async function openInspection(c: Ctx, id: string): Promise<Inspection> {
 }
 
 /**
- * A photo's parent: a live reading or deficiency of this building. A reading's photos are part of
+ * A photo's parent: a live reading, deficiency, circuit or panel of this building. A reading's photos are part of
  * its inspection's record, so a signed inspection freezes them (409 `signed`) like the reading;
  * a deficiency's photos are evidence of its repair and stay open after the sign-off.
  */
@@ -86,6 +86,7 @@ export async function photoParent(c: Ctx, parentKind: string, parentId: string):
     await openInspection(c, reading.inspectionId);
     return;
   }
-  const found = await c.w.em.exists(Deficiency, { where: { id: parentId, buildingId: c.building.id, ...live } });
+  const table = parentKind === 'circuit' ? Circuit : parentKind === 'panel' ? Panel : Deficiency;
+  const found = await c.w.em.exists(table, { where: { id: parentId, buildingId: c.building.id, ...live } });
   if (!found) throw new ValidationError({ parentId: `no such ${parentKind} in this building` });
 }

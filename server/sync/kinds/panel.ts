@@ -1,7 +1,8 @@
 import type { EntityManager } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
 import { panelLayout } from '../../../shared/calc';
-import type { PanelCreateBody, PanelPatchBody } from '../../../shared/schemas';
+import { completeGroups } from '../../../shared/merge';
+import { PANEL_RULE_FIELDS, panelRuleErrors, type PanelCreateBody, type PanelPatchBody } from '../../../shared/schemas';
 import { requireScheduleEditor } from '../../auth/access';
 import { Circuit, Panel } from '../../entities';
 import { AppError, NotFoundError, ValidationError } from '../../http/errors';
@@ -66,9 +67,13 @@ export async function patchPanel(w: WriteContext, id: string, patch: PanelPatchB
   if (panel.deletedAt) {
     drafts.push(editedAfterDelete(panel, patch, w, target));
   } else {
-    const plan = planMerge(panel, patch, w, version);
+    const plan = planMerge(panel, completeGroups(patch, panel), w, version);
     const changed = new Set(plan.applied);
     const next = plan.candidate;
+    if (PANEL_RULE_FIELDS.some((f) => changed.has(f))) {
+      const problems = panelRuleErrors(next);
+      if (Object.keys(problems).length > 0) throw new ValidationError(problems);
+    }
     if (changed.has('fedFromPanelId')) await checkPanelLinks(w.em, panel.buildingId, id, next.fedFromPanelId);
     if (changed.has('spaces') || changed.has('system')) {
       const circuits = await w.em.find(Circuit, { where: { panelId: id, ...live } });

@@ -1,3 +1,4 @@
+import { PHOTO_PURPOSES_OF } from '../../../shared/records';
 import type { MutationFields } from '../../../shared/sync';
 import { Inspection, Photo, Reading } from '../../entities';
 import { ValidationError } from '../../http/errors';
@@ -6,8 +7,8 @@ import { createRecord, deleteRecord, patchRecord, planRecordPatches, type Record
 import type { MutationHandlers, PatchPlanners } from './types';
 
 /**
- * Kind `photo`: the row of a photo of a reading (thermal or visible image) or of a deficiency
- * (finding or repair); the bytes go up separately (server/services/photos.ts). A reading's photo
+ * Kind `photo`: the row of a photo of a reading (thermal or visible image), of a deficiency
+ * (finding or repair), or of a circuit or a panel (the equipment: a breaker's marking, the labels); the bytes go up separately (server/services/photos.ts). A reading's photo
  * freezes with its signed inspection.
  */
 export const photoSpec: RecordSpec<Photo, MutationFields<'photo.create'>, MutationFields<'photo.patch'>> = {
@@ -17,7 +18,7 @@ export const photoSpec: RecordSpec<Photo, MutationFields<'photo.create'>, Mutati
   write: 'inspection.record',
   async create(c, { parentKind, parentId, purpose }) {
     await photoParent(c, parentKind, parentId);
-    const fits = parentKind === 'reading' ? ['thermal', 'visible'] : ['finding', 'repair'];
+    const fits = PHOTO_PURPOSES_OF[parentKind];
     if (!fits.includes(purpose)) {
       throw new ValidationError({ purpose: `a ${parentKind} photo is ${fits.join(' or ')}` });
     }

@@ -137,6 +137,7 @@ describe('bandProblem names why a band cannot be used (it is the validator: the 
 const reading = (over: Partial<ReadingFields>): ReadingFields => ({
   inspectionId: 'i', panelId: 'p', kind: 'thermal', circuitId: null, notes: '', component: 'lug', phase: null,
   temperatureC: 40, referenceC: 30, referenceBasis: 'similar', loadA: null, referenceLoadA: null, duringTestPulse: false,
+  emissivity: null, reflectedC: null, distanceM: null, camera: '',
   fastener: '', specified: null, unit: null, specSource: null, conductorSize: null, screw: null, screwSize: null,
   asFound: null, asFoundValue: null, asLeft: null, testCurrentA: null, tripped: null, tripTimeS: null, bandId: null, check: null,
   ...over,

@@ -113,3 +113,22 @@ describe('shared/calc/index.ts — the public module', () => {
     assert.equal(typeof calc.SAFETY_CAUTION, 'string');
   });
 });
+
+describe('circuitWarnings takes the circuit’s ambient and conductor count (NEC 310.15(B)(1), (C)(1))', () => {
+  it('12 Cu 90 °C on 20 A: fine at 30 °C and 3 conductors; too small at 50 °C with 10 conductors', () => {
+    // Table 310.16 [V]: 12 AWG Cu 30 A at 90 °C; Table 310.15(B)(1) [V]: 0.82 at 46–50 °C (90 °C
+    // column); Table 310.15(C)(1) [V]: 50 % for 10–20 conductors → 30 × 0.82 × 0.5 = 12.3 A, next
+    // standard size 15 A (240.4(B)) < 20 A
+    assert.deepEqual(circuitWarnings(base, panel208).map((w) => w.code), []);
+    const hot = circuitWarnings({ ...base, ambientC: 50, currentCarrying: 10 }, panel208);
+    assert.deepEqual(hot.map((w) => w.code), ['conductor-too-small']);
+    assert.match(hot[0].message, /310\.15\(B\)\(1\)/);
+    assert.match(hot[0].message, /310\.15\(C\)\(1\)/);
+  });
+  it('an ambient the insulation may not be used at is a warning, not a pass', () => {
+    // Table 310.15(B)(1) [V]: 60 °C insulation has no factor above 55 °C ambient
+    const found = circuitWarnings({ ...base, insulationTempC: 60, ambientC: 58 }, panel208);
+    assert.deepEqual(found.map((w) => w.code), ['conductor-not-in-table']);
+    assert.match(found[0].message, /may not be used at 58 °C ambient \(NEC Table 310\.15\(B\)\(1\)\)/);
+  });
+});

@@ -1,8 +1,12 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useMemo } from 'react';
 import { StyleSheet, View } from 'react-native';
+import { PhotoStrip } from '@/components/documents/photos';
+import { FaultCheckCard } from '@/components/register/fault-check';
+import { MeasuredLoad } from '@/components/register/measured-load';
 import { PanelActions } from '@/components/register/panel-actions';
 import { PanelLoadSummary } from '@/components/register/panel-load';
+import { SpareCapacityCalculator } from '@/components/register/spare-capacity';
 import { PanelProblems } from '@/components/register/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/register/panel-schedule';
 import { SafetyNote } from '@/components/ui/safety-note';
@@ -13,6 +17,7 @@ import { colours, radii, space } from '@/components/ui/theme';
 import { usePanel } from '@/hooks/use-register';
 import { canEditSchedules } from '@/hooks/use-session';
 import { SYSTEM_INFO } from '@/shared/domain';
+import { can } from '@/shared/permissions';
 
 export default function PanelScreen() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();
@@ -80,6 +85,16 @@ export default function PanelScreen() {
             <PanelProblems problems={problems} onOpen={openCircuit} />
           </View>
         </View>
+        <FaultCheckCard panel={panel} circuits={circuits} />
+        <View style={styles.overview}>
+          <View style={styles.overviewItem}>
+            <MeasuredLoad panel={panel} circuits={circuits} />
+          </View>
+          <View style={styles.overviewItem}>
+            <SpareCapacityCalculator panel={panel} circuits={circuits} />
+          </View>
+        </View>
+        <PhotoStrip buildingId={building.id} parentKind="panel" parentId={panel.id} purpose="equipment" canAdd={can(building.role, 'inspection.record')} label="Add panel photo" />
         <SafetyNote />
       </Screen>
     </>

@@ -1,6 +1,7 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet } from 'react-native';
+import { BreakerIdentity } from '@/components/register/breaker-identity';
 import { CircuitForm } from '@/components/register/circuit-form';
 import { CircuitHead } from '@/components/register/circuit-head';
 import { Button } from '@/components/ui/button';
@@ -66,6 +67,7 @@ export default function CircuitScreen() {
       <CircuitHead circuit={circuit} panel={panel} />
       {canEdit && <Button label="Edit circuit" onPress={() => setEditing(true)} testID="edit-circuit" style={styles.start} />}
       {/* cards about this circuit (its breaker, fault current …) sit here, one line each */}
+      <BreakerIdentity circuit={circuit} panel={panel} building={building} />
       <CircuitRecord circuitId={circuit.id} panelId={panel.id} />
     </Screen>
   );
