@@ -20,6 +20,7 @@ import { PriorityChip } from '@/components/deficiencies/priority-chip';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Text } from '@/components/ui/text';
 import { colours, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
+import { can } from '@/shared/permissions';
 
 const RECENT = 5;
 
@@ -57,7 +58,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
             title="Recorded trips"
             testID="record-trips"
           >
-            {role !== 'owner' && (
+            {can(role, 'inspection.record') && (
               <Button
                 label="Record a trip"
                 tone="secondary"

@@ -14,8 +14,8 @@ import { replicaGate } from '@/components/ui/states';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
 import { usePanel } from '@/hooks/use-register';
-import { canEditSchedules } from '@/hooks/use-session';
 import { SYSTEM_INFO } from '@/shared/domain';
+import { can } from '@/shared/permissions';
 
 export default function PanelScreen() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();
@@ -28,7 +28,7 @@ export default function PanelScreen() {
   const gate = replicaGate(query, 'panel');
   if (gate || !query.data) return gate;
   const { panel, building, circuits } = query.data;
-  const canEdit = canEditSchedules(building.role);
+  const canEdit = can(building.role, 'schedule.edit');
   const openCircuit = (circuit: { id: string }) =>
     router.push({ pathname: '/panels/[panelId]/circuits/[circuitId]', params: { panelId, circuitId: circuit.id } });
   const problems = circuits

@@ -5,8 +5,8 @@ import { CircuitRecord, CircuitRecordSummary } from '@/components/trips/trip-rec
 import { EmptyState, replicaGate } from '@/components/ui/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
-import { canEditSchedules } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
+import { can } from '@/shared/permissions';
 
 export default function CircuitScreen() {
   const { panelId, circuitId } = useLocalSearchParams<{ panelId: string; circuitId: string }>();
@@ -19,7 +19,7 @@ export default function CircuitScreen() {
   const circuit = circuits.find((c) => c.id === circuitId);
   if (!circuit) return <EmptyState title="Circuit not found" hint="It may have been deleted. Go back to the schedule." />;
   const title = `${panel.tag} · ${circuit.position}`;
-  if (!canEditSchedules(building.role)) {
+  if (!can(building.role, 'schedule.edit')) {
     return (
       <Screen>
         <Stack.Screen options={{ title }} />
