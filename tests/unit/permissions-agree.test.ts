@@ -19,6 +19,7 @@ import { checkDeficiencyRaise, may } from '../../shared/deficiency';
 import { requireAdmin, requireScheduleEditor, type Actor } from '../../server/auth/access';
 import { requireOrgAdmin } from '../../server/services/access';
 import { RECORD_SPECS, bandSpec } from '../../server/sync/kinds';
+import { arcFlashSpec } from '../../server/sync/kinds/arc-flash';
 
 const STATES: readonly RecordState[] = [{}, { signed: false }, { signed: true }];
 
@@ -64,18 +65,21 @@ describe('the server guards and the screens read one table', () => {
   it('every synced kind writes under the action its rule names', () => {
     // DESIGN.md §2: inspections, readings, trips and their photos are the field team's record;
     // a deficiency is written by anyone (each field then has its own action) and deleted by its
-    // raisers; the band library is kept by the field team.
+    // raisers; the band library is kept by the field team; the arc-flash label is the schedule
+    // keepers' (electricians and admins), as the panel it hangs on.
     const expected: Record<string, { write: Action; remove: Action }> = {
       inspection: { write: 'inspection.record', remove: 'inspection.record' },
       reading: { write: 'inspection.record', remove: 'inspection.record' },
       trip: { write: 'inspection.record', remove: 'inspection.record' },
       photo: { write: 'inspection.record', remove: 'inspection.record' },
       deficiency: { write: 'deficiency.write', remove: 'deficiency.delete' },
+      'arc-flash': { write: 'arc-flash.edit', remove: 'arc-flash.edit' },
     };
-    for (const spec of RECORD_SPECS) {
+    for (const spec of [...RECORD_SPECS, arcFlashSpec]) {
       assert.deepEqual({ write: spec.write, remove: spec.remove ?? spec.write }, expected[spec.kind], spec.kind);
     }
     assert.equal(bandSpec.write, 'band.edit');
+    assert.deepEqual(ROLES.filter((r) => can(r, 'arc-flash.edit')).sort(), ['admin', 'electrician']);
   });
 
   it('a signature freezes recording and signing for every role, and nothing else', () => {
