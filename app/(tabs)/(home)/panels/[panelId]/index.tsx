@@ -4,6 +4,7 @@ import { StyleSheet, View } from 'react-native';
 import { Button } from '@/components/ui/button';
 import { CsvButtons } from '@/components/csv/csv-buttons';
 import { InspectPanelButton } from '@/components/inspections/inspection-entry';
+import { ArcFlashCard } from '@/components/register/arc-flash-card';
 import { PanelLoadSummary } from '@/components/register/panel-load';
 import { PanelProblems } from '@/components/register/panel-problems';
 import { PanelSchedule, warningsByCircuit } from '@/components/register/panel-schedule';
@@ -82,6 +83,7 @@ export default function PanelScreen() {
             <Text variant="small">Read only: as {building.role} you can view this schedule but not change it.</Text>
           </View>
         )}
+        <ArcFlashCard buildingId={building.id} panelId={panel.id} role={building.role} />
         <View style={styles.overview}>
           <View style={styles.overviewItem}>
             <PanelLoadSummary panel={panel} circuits={circuits} />
