@@ -6,7 +6,7 @@
  *
  * The rules the table itself is checked against are in tests/unit/permissions.test.ts
  * (DESIGN.md §2 "Users" and §6 "Deficiency workflow"); here: the frozen signed inspection
- * (DEVELOPERS.md "The condition record": a signed inspection takes no more records) and who
+ * (DEVELOPERS.md "The condition record": sign-off freezes the inspection and its readings) and who
  * writes each synced kind (DEVELOPERS.md "Adding a record kind", step 3).
  */
 import assert from 'node:assert/strict';
