@@ -62,8 +62,3 @@ export function useSignOut() {
     },
   });
 }
-
-/** Schedule editing is for electricians and admins (the server checks the same). */
-export function canEditSchedules(role: string | undefined): boolean {
-  return role === 'admin' || role === 'electrician';
-}

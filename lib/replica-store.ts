@@ -5,6 +5,7 @@
  * entries whose rows changed. Pure: lib/device-copy.ts does the reading and writing.
  */
 import { z } from 'zod';
+import { arcFlashLabelSchema } from '@/shared/arc-flash';
 import { deficiencyEntrySchema, deficiencySchema, inspectionSchema, photoSchema, readingSchema, tripEventSchema } from '@/shared/records';
 import { buildingSchema, circuitSchema, panelSchema, type Circuit } from '@/shared/schemas';
 import { conflictSchema, RECORD_LISTS } from '@/shared/sync';
@@ -59,6 +60,7 @@ const RECORD_SCHEMAS = {
   entries: deficiencyEntrySchema,
   trips: tripEventSchema,
   photos: photoSchema,
+  arcFlashLabels: arcFlashLabelSchema,
 } as const;
 
 const headSchema = z

@@ -3,6 +3,7 @@
  * rows, its conflicts and its pull cursor. Pure functions only: pulls and local writes both go
  * through here, so what the screens show is always "server truth + the changes still queued".
  */
+import type { ArcFlashLabel } from '@/shared/arc-flash';
 import type { Deficiency, DeficiencyEntry, Inspection, Photo, Reading, TripEvent } from '@/shared/records';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
 import { RESOLUTIONS, type BuildingPage, type Conflict, type Mutation, type MutationResult, type PullResponse, type RecordList } from '@/shared/sync';
@@ -15,6 +16,7 @@ export interface RecordCopy {
   entries: Record<string, DeficiencyEntry>;
   trips: Record<string, TripEvent>;
   photos: Record<string, Photo>;
+  arcFlashLabels: Record<string, ArcFlashLabel>;
 }
 
 export interface BuildingCopy extends Partial<RecordCopy> {
@@ -107,6 +109,7 @@ function applyPage(copy: BuildingCopy | undefined, page: BuildingPage): Building
     entries: mergeRows(base?.entries, up.entries, gone.entries),
     trips: mergeRows(base?.trips, up.trips, gone.trips),
     photos: mergeRows(base?.photos, up.photos, gone.photos),
+    arcFlashLabels: mergeRows(base?.arcFlashLabels, up.arcFlashLabels, gone.arcFlashLabels),
   };
   return { building, panels, circuits, conflicts, ...records, cursor: page.toVersion, ...(page.resume && { resume: page.resume }) };
 }
@@ -351,5 +354,15 @@ const KINDS: Record<string, KindSpec> = {
     patch: true,
     delete: true,
     describe: recordWords('Photo'),
+  }),
+  'arc-flash': kind<ArcFlashLabel>({
+    rows: { get: (c) => recordsOf(c, 'arcFlashLabels'), put: (c, arcFlashLabels) => ({ ...c, arcFlashLabels }) },
+    created: inBuilding,
+    patch: true,
+    delete: true,
+    describe: recordWords('Arc-flash label', (copy, m) => {
+      const { studyDate } = fieldsOf(m);
+      return typeof studyDate === 'string' ? `study ${studyDate}` : copy ? recordsOf(copy, 'arcFlashLabels')[m.entityId]?.studyDate : undefined;
+    }),
   }),
 };

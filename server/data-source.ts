@@ -8,6 +8,7 @@ import { SyncLeanRecord1764990000000 } from './migrations/1764990000000-sync-lea
 import { ConditionRecord1765200000000 } from './migrations/1765200000000-condition-record';
 import { Access1765300000000 } from './migrations/1765300000000-access';
 import { ExactNumbers1765410000000 } from './migrations/1765410000000-exact-numbers';
+import { ArcFlashLabel1765440000000 } from './migrations/1765440000000-arc-flash-label';
 import { ReplayGuardPerUser1765420000000 } from './migrations/1765420000000-replay-guard-per-user';
 import { Judgements1765413000000 } from './migrations/1765413000000-judgements';
 import { PanelChecks1765430000000 } from './migrations/1765430000000-panel-checks';
@@ -27,6 +28,7 @@ export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
       Judgements1765413000000,
       ReplayGuardPerUser1765420000000,
       PanelChecks1765430000000,
+      ArcFlashLabel1765440000000,
     ],
     synchronize: false,
     logging: false,

@@ -39,6 +39,8 @@ export const ACTIONS = [
   'people.manage',
   /** e-mail an inspection report to the building's owners */
   'report.send',
+  /** a panel's arc-flash label (the study's figures): kept with the schedule */
+  'arc-flash.edit',
 ] as const;
 export type Action = (typeof ACTIONS)[number];
 
@@ -73,6 +75,7 @@ const WHO: Record<Action, readonly Role[]> = {
   'settings.edit': ['admin'],
   'people.manage': ['admin'],
   'report.send': RAISERS,
+  'arc-flash.edit': SCHEDULE,
 };
 
 /** What a rule may depend on besides the role. */

@@ -3,6 +3,7 @@
  * server parses with them; the client's outbox and pull loop take their types from them.
  */
 import { z } from 'zod';
+import { arcFlashCreateBody, arcFlashLabelSchema, arcFlashPatchBody } from './arc-flash';
 import { isHlc } from './hlc';
 import {
   buildingCreateBody,
@@ -93,6 +94,9 @@ export const MUTATION_NAMES = [
   'photo.create',
   'photo.patch',
   'photo.delete',
+  'arc-flash.create',
+  'arc-flash.patch',
+  'arc-flash.delete',
 ] as const;
 export type MutationName = (typeof MUTATION_NAMES)[number];
 
@@ -146,6 +150,9 @@ export const MUTATION_FIELDS = {
   'photo.create': photoCreateBody,
   'photo.patch': photoPatchBody,
   'photo.delete': noFields,
+  'arc-flash.create': arcFlashCreateBody,
+  'arc-flash.patch': arcFlashPatchBody,
+  'arc-flash.delete': noFields,
 } as const satisfies Record<MutationName, z.ZodType>;
 
 /** The checked fields of one mutation, inferred from its schema (defaults filled in). */
@@ -255,14 +262,14 @@ export const pullBody = z.object({
 });
 export type PullBody = z.infer<typeof pullBody>;
 
-export const CONFLICT_ENTITIES = ['building', 'panel', 'circuit', 'inspection', 'reading', 'deficiency', 'trip', 'photo'] as const;
+export const CONFLICT_ENTITIES = ['building', 'panel', 'circuit', 'inspection', 'reading', 'deficiency', 'trip', 'photo', 'arc-flash'] as const;
 export type ConflictEntity = (typeof CONFLICT_ENTITIES)[number];
 
 /**
  * The condition-record tables a pull carries besides panels and circuits, by the name of their
  * list in a page (upserts and tombstones use the same names).
  */
-export const RECORD_LISTS = ['inspections', 'readings', 'deficiencies', 'entries', 'trips', 'photos'] as const;
+export const RECORD_LISTS = ['inspections', 'readings', 'deficiencies', 'entries', 'trips', 'photos', 'arcFlashLabels'] as const;
 export type RecordList = (typeof RECORD_LISTS)[number];
 export const CONFLICT_KINDS = ['concurrent', 'edited_after_delete'] as const;
 
@@ -324,6 +331,7 @@ export const buildingPageSchema = z.object({
     entries: z.array(deficiencyEntrySchema),
     trips: z.array(tripEventSchema),
     photos: z.array(photoSchema),
+    arcFlashLabels: z.array(arcFlashLabelSchema),
   }),
   /** ids deleted since the cursor (empty in a snapshot, which holds live rows only) */
   tombstones: z.object({
@@ -335,6 +343,7 @@ export const buildingPageSchema = z.object({
     entries: z.array(z.string()),
     trips: z.array(z.string()),
     photos: z.array(z.string()),
+    arcFlashLabels: z.array(z.string()),
   }),
 });
 export type BuildingPage = z.infer<typeof buildingPageSchema>;

@@ -23,6 +23,7 @@ import { colours, space, WIDE_MIN_WIDTH } from '@/components/ui/theme';
 import { useAllDeficiencies } from '@/hooks/use-records';
 import { useBuildings } from '@/hooks/use-register';
 import { todayISO } from '@/shared/deficiency';
+import { can } from '@/shared/permissions';
 
 export default function Findings() {
   const router = useRouter();
@@ -48,7 +49,7 @@ export default function Findings() {
   const today = todayISO();
   const { shown, counts } = applyFilters(rows, filters, today);
   const buildingName = (id: string) => buildings.find((b) => b.id === id)?.name ?? 'a building';
-  const canRaise = buildings.some((b) => b.role === 'admin' || b.role === 'inspector');
+  const canRaise = buildings.some((b) => can(b.role, 'deficiency.raise'));
 
   if (view === 'maintenance') {
     return (

@@ -11,6 +11,7 @@ import { OrganisationSettingsCard } from '@/components/access/organisation-setti
 import { TemperatureUnitCard } from '@/components/settings/temperature-unit-card';
 import { useSession, useSignOut } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
+import { can } from '@/shared/permissions';
 
 export default function Me() {
   const session = useSession();
@@ -41,11 +42,11 @@ export default function Me() {
       </Card>
       <TemperatureUnitCard />
       {me.memberships
-        .filter((m) => m.role === 'admin')
+        .filter((m) => can(m.role, 'settings.edit'))
         .map((m) => (
           <OrganisationSettingsCard key={m.organisationId} membership={m} />
         ))}
-      {me.memberships.some((m) => m.role === 'admin') && (
+      {me.memberships.some((m) => can(m.role, 'people.manage')) && (
         <Button label="Users and access" tone="secondary" onPress={() => router.push('/users')} testID="users-and-access" />
       )}
       <Button label="Band library" tone="secondary" onPress={() => router.push('/bands')} testID="band-library" />

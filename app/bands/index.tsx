@@ -8,13 +8,14 @@ import { Text } from '@/components/ui/text';
 import { space } from '@/components/ui/theme';
 import { useBands } from '@/hooks/use-records';
 import { useSession } from '@/hooks/use-session';
+import { can } from '@/shared/permissions';
 
 export default function BandLibraryScreen() {
   const router = useRouter();
   const bands = useBands();
   const me = useSession().data;
   // owners read the library; the field team keeps it (the server checks the same)
-  const canAdd = !!me?.memberships.some((m) => m.role !== 'owner');
+  const canAdd = !!me?.memberships.some((m) => can(m.role, 'band.edit'));
   const addButton = canAdd ? <Button label="New band" onPress={() => router.push('/bands/new')} testID="new-band" /> : null;
   if (bands.data === undefined) {
     if (bands.isError) return <ErrorState error={bands.error} onRetry={() => bands.refetch()} />;

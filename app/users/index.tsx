@@ -6,10 +6,11 @@ import { Screen } from '@/components/ui/screen';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { usePeople } from '@/hooks/use-access';
 import { useSession } from '@/hooks/use-session';
+import { can } from '@/shared/permissions';
 
 export default function UsersAndAccess() {
   const me = useSession().data;
-  const adminOf = me?.memberships.filter((m) => m.role === 'admin') ?? [];
+  const adminOf = me?.memberships.filter((m) => can(m.role, 'people.manage')) ?? [];
   const [picked, setPicked] = useState<string | undefined>(undefined);
   const organisationId = picked ?? adminOf[0]?.organisationId;
   const people = usePeople(organisationId);

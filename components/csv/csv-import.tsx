@@ -7,7 +7,6 @@ import { useRouter } from 'expo-router';
 import { useMemo, useState } from 'react';
 import { StyleSheet, View } from 'react-native';
 import { pickCsvFile, useScheduleImport } from '@/hooks/use-csv';
-import { canEditSchedules } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
 import { CSV_HEADER_OF, planSummary, type CsvField, type ImportPlan } from '@/shared/csv';
 import { Button } from '@/components/ui/button';
@@ -16,6 +15,7 @@ import { ToggleField } from '@/components/ui/fields';
 import { EmptyState, replicaGate } from '@/components/ui/states';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
+import { can } from '@/shared/permissions';
 
 export function CsvImport({ panelId }: { panelId: string }) {
   const router = useRouter();
@@ -30,7 +30,7 @@ export function CsvImport({ panelId }: { panelId: string }) {
   const gate = replicaGate(importer.query, 'panel');
   if (gate || !importer.found) return gate;
   const { panel, building } = importer.found;
-  if (!canEditSchedules(building.role)) {
+  if (!can(building.role, 'schedule.edit')) {
     return (
       <EmptyState
         title="Read only"

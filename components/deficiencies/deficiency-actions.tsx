@@ -25,6 +25,7 @@ import { dateWords, isRealDate } from './deficiency-format';
 import { ChoiceField, TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
+import { can } from '@/shared/permissions';
 
 type Person = { id: string; name: string; role: Role };
 type Form = 'schedule' | 'repair' | 'defer' | 'reprioritise' | 'reopen' | 'assign' | null;
@@ -64,7 +65,8 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
 
   const moves = nextStatuses(role, d.status);
   const canMove = (action: DeficiencyAction) => moves.find((m) => m.action === action);
-  const assignable = people.filter((p) => p.role !== 'owner');
+  // the work goes to someone who may carry it out: repair it or verify the repair
+  const assignable = people.filter((p) => can(p.role, 'deficiency.repair') || can(p.role, 'deficiency.verify'));
   const dueDays = props.dueDays ?? DEFAULT_DUE_DAYS;
 
   const open = (next: Form) => {
@@ -328,9 +330,10 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
 
 function noActionWords(role: Role, d: Deficiency): string {
   if (d.status === 'verified') return 'Verified: the repair was checked. Nothing more to do unless it comes back.';
-  if (role === 'owner') return d.acceptedAt ? 'You accepted the repair plan. The contractor does the rest.' : 'Nothing for you to do here now.';
-  if (role === 'electrician' && d.status === 'repaired') return 'Repaired: waiting for an inspector to verify it.';
-  if (role === 'electrician' && d.status === 'deferred') return 'Deferred by the owner: nothing to do until it is taken back.';
+  // the words follow what this role may not do (shared/permissions.ts), not the role's name
+  if (can(role, 'deficiency.accept')) return d.acceptedAt ? 'You accepted the repair plan. The contractor does the rest.' : 'Nothing for you to do here now.';
+  if (d.status === 'repaired' && !can(role, 'deficiency.verify')) return 'Repaired: waiting for an inspector to verify it.';
+  if (d.status === 'deferred' && !can(role, 'deficiency.undefer')) return 'Deferred by the owner: nothing to do until it is taken back.';
   return 'Nothing for your role to do at this stage.';
 }
 

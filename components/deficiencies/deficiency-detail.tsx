@@ -21,6 +21,7 @@ import { PriorityChip } from './priority-chip';
 import { replicaGate } from '@/components/ui/states';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
+import { can } from '@/shared/permissions';
 
 const READING_WORDS: Record<Reading['kind'], string> = {
   thermal: 'Thermal reading',
@@ -57,7 +58,8 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
   const repairPhotos = photos.filter((p) => p.purpose === 'repair').length;
   const assessment = reading ? assessOnDevice(view, reading, bands, unit) : null;
   const inspection = d.inspectionId ? view.inspection(d.inspectionId) : undefined;
-  const fieldWorker = role !== 'owner';
+  // photos are recorded by the field team, as readings are (the server checks the same action)
+  const fieldWorker = can(role, 'inspection.record');
 
   const remove = async () => {
     const ok = await confirmAction(

@@ -7,7 +7,6 @@ import { useRouter } from 'expo-router';
 import { useState } from 'react';
 import { StyleSheet, useWindowDimensions, View } from 'react-native';
 import { useDoorCard, type ReviewLine } from '@/hooks/use-door-card';
-import { canEditSchedules } from '@/hooks/use-session';
 import { planSummary, type ImportPlan } from '@/shared/csv';
 import { LOW_CONFIDENCE } from '@/shared/door-card/parse';
 import { Button } from '../ui/button';
@@ -16,6 +15,7 @@ import { EmptyState, replicaGate } from '../ui/states';
 import { Text } from '../ui/text';
 import { colours, radii, space } from '../ui/theme';
 import { DraftLine } from './draft-line';
+import { can } from '@/shared/permissions';
 
 const WIDE = 1024;
 
@@ -30,7 +30,7 @@ export function DoorCardReader({ panelId }: { panelId: string }) {
   const gate = replicaGate(card.query, 'panel');
   if (gate || !card.found) return gate;
   const { panel, building } = card.found;
-  if (!canEditSchedules(building.role)) {
+  if (!can(building.role, 'schedule.edit')) {
     return <EmptyState title="Read only" hint={`As ${building.role} you can read this schedule but not fill it from a card.`} />;
   }
 

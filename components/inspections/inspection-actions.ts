@@ -10,11 +10,9 @@ import type { Assessment } from '@/shared/assess';
 import { dueOnFor, todayISO } from '@/shared/deficiency';
 import { VISUAL_CHECKS, type Inspection, type Priority, type Reading, type VisualCheck } from '@/shared/records';
 import {
-  canRaiseDeficiencies,
-  canRecordInspections,
-  canSignInspections,
   deficiencyTitleFor,
 } from './inspection-format';
+import { can } from '@/shared/permissions';
 
 /** An empty reading of a kind: every field the create body knows, unset. */
 export function blankReading(inspectionId: string, panelId: string, kind: Reading['kind']) {
@@ -59,8 +57,8 @@ export function useInspectionActions(view: BuildingView | undefined, inspection:
   const membership = useMembership(view?.building.organisationId);
   const role = view?.building.role;
   const signed = !!inspection?.signedAt;
-  const canRecord = canRecordInspections(role) && !signed;
-  const canRaise = canRaiseDeficiencies(role);
+  const canRecord = can(role, 'inspection.record', { signed });
+  const canRaise = can(role, 'deficiency.raise');
   const buildingId = view?.building.id ?? '';
 
   const dueOn = (priority: Priority) => dueOnFor(priority, todayISO(), membership?.settings.dueDays);
@@ -132,7 +130,7 @@ export function useInspectionActions(view: BuildingView | undefined, inspection:
   };
 
   const sign = async () => {
-    if (!inspection || signed || !canSignInspections(role)) return;
+    if (!inspection || !can(role, 'inspection.sign', { signed })) return;
     const ok = await confirmAction(
       'Sign this inspection?',
       'Signing freezes this inspection; later changes need a new inspection.',
@@ -148,7 +146,7 @@ export function useInspectionActions(view: BuildingView | undefined, inspection:
     /** may add, change and delete readings here (not signed, and a field worker) */
     canRecord,
     canRaise,
-    canSign: canSignInspections(role) && !signed,
+    canSign: can(role, 'inspection.sign', { signed }),
     raiseFromReading,
     tick,
     untick,

@@ -8,17 +8,17 @@ import { useInspections } from '@/hooks/use-records';
 import { useBuilding } from '@/hooks/use-register';
 import type { Role } from '@/shared/domain';
 import { Button } from '@/components/ui/button';
-import { canRecordInspections } from './inspection-format';
 import { InspectionList } from './inspection-list';
 import { Text } from '@/components/ui/text';
 import { space } from '@/components/ui/theme';
+import { can } from '@/shared/permissions';
 
 export function BuildingInspections({ buildingId }: { buildingId: string }) {
   const router = useRouter();
   const building = useBuilding(buildingId).data;
   const inspections = useInspections(buildingId).data ?? [];
   if (!building) return null;
-  const canRecord = canRecordInspections(building.building.role);
+  const canRecord = can(building.building.role, 'inspection.record');
   return (
     <View style={styles.section} testID="building-inspections">
       <View style={styles.head}>
@@ -51,7 +51,7 @@ export function BuildingInspections({ buildingId }: { buildingId: string }) {
 
 export function InspectPanelButton({ role, buildingId, panelId }: { role: Role; buildingId: string; panelId: string }) {
   const router = useRouter();
-  if (!canRecordInspections(role)) return null;
+  if (!can(role, 'inspection.record')) return null;
   return (
     <Button
       label="Inspect this panel"

@@ -1,10 +1,9 @@
 /**
- * How inspections and readings read on screen, and who may do what with them. Pure functions,
- * shared by the inspection screen, the reading form and the building's list of inspections.
+ * How inspections and readings read on screen. Pure functions, shared by the inspection screen,
+ * the reading form and the building's list of inspections. Who may record or sign is
+ * shared/permissions.ts `can`, the table the server's guards read.
  */
 import { THERMOGRAPHY_LOAD_MIN_FRACTION, type TripVerdict } from '@/shared/calc';
-import type { Role } from '@/shared/domain';
-import { may } from '@/shared/deficiency';
 import {
   THERMAL_COMPONENT_LABELS,
   type Inspection,
@@ -13,20 +12,6 @@ import {
   type ReadingKind,
 } from '@/shared/records';
 import type { Circuit, Panel } from '@/shared/schemas';
-
-/** Inspections, readings and trips are recorded by field workers (the server checks the same). */
-export function canRecordInspections(role: Role | undefined): boolean {
-  return role === 'admin' || role === 'electrician' || role === 'inspector';
-}
-
-/** Only an inspector or an admin signs an inspection off. */
-export function canSignInspections(role: Role | undefined): boolean {
-  return role === 'admin' || role === 'inspector';
-}
-
-export function canRaiseDeficiencies(role: Role | undefined): boolean {
-  return !!role && may(role, 'raise');
-}
 
 /** The reading kinds an inspection of this kind is made of (the rest stay one tap further away). */
 export const READING_KINDS_FOR: Record<InspectionKind, readonly Exclude<ReadingKind, 'visual'>[]> = {

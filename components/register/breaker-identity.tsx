@@ -6,7 +6,7 @@ import { Text } from '@/components/ui/text';
 import { space } from '@/components/ui/theme';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { useMembership } from '@/hooks/use-records';
-import { canEditSchedules } from '@/hooks/use-session';
+import { can } from '@/shared/permissions';
 import { todayISO } from '@/shared/deficiency';
 import { can } from '@/shared/permissions';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
@@ -20,7 +20,7 @@ import { breakerFaultFinding } from './fault-check';
 export function BreakerIdentity({ circuit, panel, building }: { circuit: Circuit; panel: Panel; building: Building }) {
   const writes = useCircuitWrites(panel.id);
   const membership = useMembership(building.organisationId);
-  const canEdit = canEditSchedules(building.role);
+  const canEdit = can(building.role, 'schedule.edit');
   const finding = breakerFaultFinding(panel, circuit);
   if (circuit.status === 'space') return null;
   const identity = [circuit.breakerMake, circuit.catalogueNumber].filter(Boolean).join(' ');

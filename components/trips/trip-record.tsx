@@ -22,6 +22,7 @@ import { SafetyNote } from '@/components/ui/safety-note';
 import { Text } from '@/components/ui/text';
 import { colours, space } from '@/components/ui/theme';
 import { CircuitThermalTrends } from './thermal-trend';
+import { can } from '@/shared/permissions';
 
 /** Entries shown before "Show older". */
 const RECENT = 8;
@@ -67,7 +68,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
 
       <TripFindingsBox findings={findings} circuit={circuit} tripCount={trips.length} />
 
-      {role !== 'owner' && (
+      {can(role, 'inspection.record') && (
         <Button
           label="Record a trip"
           tone="secondary"

@@ -1,3 +1,4 @@
+import { ArcFlashLabel } from './arc-flash-label';
 import { Building } from './building';
 import { Circuit } from './circuit';
 import { ConflictLog } from './conflict-log';
@@ -18,6 +19,7 @@ import { TripEvent } from './trip-event';
 import { User } from './user';
 
 export {
+  ArcFlashLabel,
   Building,
   Circuit,
   ConflictLog,
@@ -54,6 +56,7 @@ export const entities = [
   DeficiencyEntry,
   TripEvent,
   Photo,
+  ArcFlashLabel,
   Invitation,
   OneTimeToken,
 ];

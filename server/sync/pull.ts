@@ -10,6 +10,7 @@ import {
 } from '../../shared/sync';
 import { roleForBuilding, type Actor } from '../auth/access';
 import {
+  ArcFlashLabel,
   Building,
   Circuit,
   ConflictLog,
@@ -77,6 +78,8 @@ const TABLES: readonly SyncTable[] = [
   syncTable('deficiency_entry', DeficiencyEntry, 'entries', recordDto),
   syncTable('trip_event', TripEvent, 'trips', recordDto),
   syncTable('photo', Photo, 'photos', recordDto),
+  // the token's table index is one digit (TOKEN below): a tenth table is the last that fits
+  syncTable('arc_flash_label', ArcFlashLabel, 'arcFlashLabels', recordDto),
 ];
 const CONFLICTS = TABLES.findIndex((t) => t.list === 'conflicts');
 
@@ -134,6 +137,7 @@ const emptyLists = (): Record<RecordList, never[]> => ({
   entries: [],
   trips: [],
   photos: [],
+  arcFlashLabels: [],
 });
 
 const emptyPage = (buildingId: string, toVersion: number, hasMore: boolean, resume?: string): BuildingPage => ({

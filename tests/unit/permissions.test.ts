@@ -39,6 +39,9 @@ const EXPECTED: Record<Action, readonly Role[]> = {
   // DESIGN.md §2: the admin keeps users and roles; the report goes out from whoever signs inspections
   'people.manage': ['admin'],
   'report.send': ['admin', 'inspector'],
+  // the arc-flash label of a panel is kept with its schedule by electricians and admins; owners
+  // and inspectors read it (issue 12 item 6, DEVELOPERS.md "Adding a record kind")
+  'arc-flash.edit': ['admin', 'electrician'],
 };
 
 describe('the permission table', () => {

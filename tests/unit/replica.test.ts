@@ -11,7 +11,7 @@ const panel = { ...sync('p1'), buildingId: 'b1', tag: 'LA', spaces: 42 } as unkn
 const circuit = (id: string, position: number, description: string, version = 1) =>
   ({ ...sync(id, version), panelId: 'p1', position, poles: 1, description, status: 'in-use' }) as unknown as Circuit;
 
-const NO_RECORDS = { inspections: [], readings: [], deficiencies: [], entries: [], trips: [], photos: [] };
+const NO_RECORDS = { inspections: [], readings: [], deficiencies: [], entries: [], trips: [], photos: [], arcFlashLabels: [] };
 type PageOver = Omit<Partial<BuildingPage>, 'upserts' | 'tombstones'> & {
   upserts?: Partial<BuildingPage['upserts']>;
   tombstones?: Partial<BuildingPage['tombstones']>;

@@ -1,4 +1,5 @@
 import type { MutationName } from '../../../shared/sync';
+import { arcFlashMutations, arcFlashPlanners } from './arc-flash';
 import { bandSpec } from './band';
 import { buildingMutations } from './building';
 import { circuitMutations, circuitPlanners } from './circuit';
@@ -28,6 +29,7 @@ export const MUTATION_HANDLERS: MutationHandlers = {
   ...commentMutations,
   ...tripMutations,
   ...photoMutations,
+  ...arcFlashMutations,
 };
 
 /** Mutation names whose runs (consecutive, same name) are planned and written as one batch. */
@@ -38,6 +40,7 @@ export const PATCH_PLANNERS: PatchPlanners = {
   ...deficiencyPlanners,
   ...tripPlanners,
   ...photoPlanners,
+  ...arcFlashPlanners,
 };
 
 export function plansRuns(name: unknown): name is MutationName {

@@ -67,6 +67,9 @@ export interface RecordSpec<E extends RecordRow, C extends Fields = Fields, P ex
   cascade?(c: RecordCtx, row: E, drafts: ConflictDraft[]): Promise<void>;
 }
 
+/** "a trip", "an arc-flash label": the article by the noun's first letter. */
+const withArticle = (noun: string) => `${/^[aeiou]/.test(noun) ? 'an' : 'a'} ${noun}`;
+
 function requireAction(role: Role, action: Action, what: string): void {
   if (!can(role, action)) throw new ForbiddenError(cannotText(role, what));
 }
@@ -80,7 +83,7 @@ export async function createRecord<E extends RecordRow, C extends Fields, P exte
   if (!w.sync) throw new Error('condition records are written through the sync push');
   const { building, role } = await writableBuilding(w, w.sync.buildingId, 'Building');
   if (building.deletedAt) throw new AppError(409, 'parent_deleted', 'The building was deleted; restore it first');
-  requireAction(role, spec.write, `record a ${spec.noun.toLowerCase()}`);
+  requireAction(role, spec.write, `record ${withArticle(spec.noun.toLowerCase())}`);
   const version = await w.versions.of(building.id);
   const c: RecordCtx = { w, building, role, version, memo: new Map(), pending: new PendingRows() };
   await refuseDuplicateId(w.em, spec.entity, id);

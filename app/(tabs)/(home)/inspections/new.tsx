@@ -1,6 +1,6 @@
 import { Stack, useLocalSearchParams, useRouter } from 'expo-router';
 import { InspectionForm } from '@/components/inspections/inspection-form';
-import { canRecordInspections, localToday } from '@/components/inspections/inspection-format';
+import { localToday } from '@/components/inspections/inspection-format';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Screen } from '@/components/ui/screen';
 import { EmptyState, replicaGate } from '@/components/ui/states';
@@ -8,6 +8,7 @@ import { Text } from '@/components/ui/text';
 import { useRecordWrites } from '@/hooks/use-records';
 import { useBuilding, usePanel } from '@/hooks/use-register';
 import type { InspectionCreateBody } from '@/shared/records';
+import { can } from '@/shared/permissions';
 
 export default function NewInspectionScreen() {
   const params = useLocalSearchParams<{ buildingId?: string; panelId?: string }>();
@@ -19,7 +20,7 @@ export default function NewInspectionScreen() {
   const gate = replicaGate(query, 'building');
   if (gate || !query.data) return gate;
   const { building, panels } = query.data;
-  if (!canRecordInspections(building.role)) {
+  if (!can(building.role, 'inspection.record')) {
     return (
       <EmptyState
         title="Inspections are recorded by the field team"

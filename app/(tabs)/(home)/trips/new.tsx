@@ -9,6 +9,7 @@ import { space } from '@/components/ui/theme';
 import { TripForm } from '@/components/trips/trip-form';
 import { useRecordWrites } from '@/hooks/use-records';
 import { usePanel } from '@/hooks/use-register';
+import { can } from '@/shared/permissions';
 
 export default function NewTripScreen() {
   const { circuitId, panelId } = useLocalSearchParams<{ circuitId: string; panelId: string }>();
@@ -20,7 +21,7 @@ export default function NewTripScreen() {
   const { panel, building, circuits } = query.data;
   const circuit = circuits.find((c) => c.id === circuitId);
   if (!circuit) return <EmptyState title="Circuit not found" hint="It may have been deleted. Go back to the schedule." />;
-  if (building.role === 'owner') {
+  if (!can(building.role, 'inspection.record')) {
     return <EmptyState title="Trips are recorded by the field team" hint="Tell your electrician or inspector when a breaker trips: they record it here with the load at the time." />;
   }
   return (

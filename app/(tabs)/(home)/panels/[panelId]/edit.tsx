@@ -4,7 +4,7 @@ import { Screen } from '@/components/ui/screen';
 import { EmptyState, replicaGate } from '@/components/ui/states';
 import { usePanelSave } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
-import { canEditSchedules } from '@/hooks/use-session';
+import { can } from '@/shared/permissions';
 
 export default function EditPanel() {
   const { panelId } = useLocalSearchParams<{ panelId: string }>();
@@ -13,7 +13,7 @@ export default function EditPanel() {
   const save = usePanelSave(panelId);
   const gate = replicaGate(query, 'panel');
   if (gate || !query.data) return gate;
-  if (!canEditSchedules(query.data.building.role)) {
+  if (!can(query.data.building.role, 'schedule.edit')) {
     return <EmptyState title="Read only" hint="Only electricians and admins edit panels." />;
   }
   return (

@@ -5,6 +5,7 @@ import { PhotoStrip } from '@/components/documents/photos';
 import { FaultCheckCard } from '@/components/register/fault-check';
 import { MeasuredLoad } from '@/components/register/measured-load';
 import { PanelActions } from '@/components/register/panel-actions';
+import { ArcFlashCard } from '@/components/register/arc-flash-card';
 import { PanelLoadSummary } from '@/components/register/panel-load';
 import { SpareCapacityCalculator } from '@/components/register/spare-capacity';
 import { PanelProblems } from '@/components/register/panel-problems';
@@ -15,7 +16,6 @@ import { replicaGate } from '@/components/ui/states';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
 import { usePanel } from '@/hooks/use-register';
-import { canEditSchedules } from '@/hooks/use-session';
 import { SYSTEM_INFO } from '@/shared/domain';
 import { can } from '@/shared/permissions';
 
@@ -30,7 +30,7 @@ export default function PanelScreen() {
   const gate = replicaGate(query, 'panel');
   if (gate || !query.data) return gate;
   const { panel, building, circuits } = query.data;
-  const canEdit = canEditSchedules(building.role);
+  const canEdit = can(building.role, 'schedule.edit');
   const openCircuit = (circuit: { id: string }) =>
     router.push({ pathname: '/panels/[panelId]/circuits/[circuitId]', params: { panelId, circuitId: circuit.id } });
   const problems = circuits
@@ -86,6 +86,7 @@ export default function PanelScreen() {
           </View>
         </View>
         <FaultCheckCard panel={panel} circuits={circuits} />
+        <ArcFlashCard buildingId={building.id} panelId={panel.id} role={building.role} />
         <View style={styles.overview}>
           <View style={styles.overviewItem}>
             <MeasuredLoad panel={panel} circuits={circuits} />

@@ -4,8 +4,8 @@ import { Screen } from '@/components/ui/screen';
 import { EmptyState, replicaGate } from '@/components/ui/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
-import { canEditSchedules } from '@/hooks/use-session';
 import type { CircuitCreateBody } from '@/shared/schemas';
+import { can } from '@/shared/permissions';
 
 export default function NewCircuit() {
   const { panelId, position } = useLocalSearchParams<{ panelId: string; position?: string }>();
@@ -14,7 +14,7 @@ export default function NewCircuit() {
   const writes = useCircuitWrites(panelId);
   const gate = replicaGate(query, 'panel');
   if (gate || !query.data) return gate;
-  if (!canEditSchedules(query.data.building.role)) {
+  if (!can(query.data.building.role, 'schedule.edit')) {
     return <EmptyState title="Read only" hint="Only electricians and admins add circuits." />;
   }
   return (

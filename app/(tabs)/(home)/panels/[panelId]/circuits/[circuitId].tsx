@@ -10,8 +10,8 @@ import { CircuitRecord } from '@/components/trips/trip-record';
 import { EmptyState, replicaGate } from '@/components/ui/states';
 import { useCircuitWrites } from '@/hooks/use-outbox';
 import { usePanel } from '@/hooks/use-register';
-import { canEditSchedules } from '@/hooks/use-session';
 import { confirmAction } from '@/lib/confirm';
+import { can } from '@/shared/permissions';
 
 /**
  * A circuit opens on its record (what the door says, breaker, conductor, warnings, then the trips
@@ -30,7 +30,7 @@ export default function CircuitScreen() {
   const circuit = circuits.find((c) => c.id === circuitId);
   if (!circuit) return <EmptyState title="Circuit not found" hint="It may have been deleted. Go back to the schedule." />;
   const title = `${panel.tag} · ${circuit.position}`;
-  const canEdit = canEditSchedules(building.role);
+  const canEdit = can(building.role, 'schedule.edit');
 
   if (canEdit && editing) {
     return (
