@@ -25,6 +25,13 @@ test('the owner searches the directory and finds the right breaker, also offline
   await expect(results.first()).toContainText('Vaccine refrigerator, nurse station');
   await page.screenshot({ path: `${ARTIFACTS}/owner-search-phone.png`, fullPage: true });
 
+  // by the word people say, and with a typo: the clinic's three refrigerators, LA 22 first
+  for (const words of ['fridge', 'refrigerater']) {
+    await search.getByTestId('directory-query').fill(words);
+    await expect(results.first()).toContainText('Vaccine refrigerator, nurse station');
+    await expect(results).toHaveCount(3);
+  }
+
   // by panel and position
   await search.getByTestId('directory-query').fill('what is on LA-28');
   await expect(results).toHaveCount(1);
