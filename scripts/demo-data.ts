@@ -32,6 +32,7 @@ import type {
   PanelKind,
   PanelSystem,
 } from '../shared/domain';
+import { percentOfNormal } from '../shared/calc/thermal';
 
 export interface DemoCircuit {
   /** starting position (odd left column, even right column) */
@@ -947,6 +948,14 @@ export interface DemoRecord {
   }[];
 }
 
+/**
+ * The autoclave's load during the survey: 11 A of its normal 12.5 A. The survey's "% of normal",
+ * the hot-lug reading and the finding's words all come from these two figures.
+ */
+const SURVEY_LOAD_A = 11;
+const SURVEY_NORMAL_A = 12.5;
+const SURVEY_LOAD_PCT = percentOfNormal(SURVEY_LOAD_A, SURVEY_NORMAL_A);
+
 export const DEMO_RECORD: DemoRecord = {
   buildingKey: 'clinic',
   panelKey: 'clinic-LA',
@@ -957,7 +966,7 @@ export const DEMO_RECORD: DemoRecord = {
       by: 'inspector',
       daysAgo: 20,
       ambientC: 23,
-      loadPct: 55,
+      loadPct: SURVEY_LOAD_PCT,
       notes: 'Dead-front off, clinic open, autoclave cycling. Scanned LA and LB.',
       signed: true,
     },
@@ -983,8 +992,8 @@ export const DEMO_RECORD: DemoRecord = {
       temperatureC: 58,
       referenceC: 36,
       referenceBasis: 'similar',
-      loadA: 11,
-      referenceLoadA: 12.5,
+      loadA: SURVEY_LOAD_A,
+      referenceLoadA: SURVEY_NORMAL_A,
       notes: 'Load lug of LA 28 against LA 22 beside it.',
     },
     {
@@ -1024,7 +1033,7 @@ export const DEMO_RECORD: DemoRecord = {
   deficiencies: [
     {
       title: 'Hot load lug, LA 28 (autoclave)',
-      description: 'ΔT 22 °C over the neighbouring lug at 88 % of normal load.',
+      description: `ΔT 22 °C over the neighbouring lug at ${SURVEY_LOAD_PCT} % of normal load.`,
       priority: 1,
       position: 28,
       readingKey: 'hot-lug',

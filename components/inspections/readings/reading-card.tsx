@@ -2,6 +2,7 @@
 import { StyleSheet, View } from 'react-native';
 import { Card, PressableCard } from '@/components/ui/card';
 import type { Assessment } from '@/shared/assess';
+import { percentOfNormal } from '@/shared/calc/thermal';
 import { THERMAL_COMPONENT_LABELS, type Reading } from '@/shared/records';
 import type { Circuit } from '@/shared/schemas';
 import { circuitName, fastenerText, READING_KIND_LABELS } from '@/components/inspections/inspection-format';
@@ -14,7 +15,10 @@ export function readingValues(r: Reading, circuit: Circuit | null): string {
   switch (r.kind) {
     case 'thermal': {
       const basis = r.referenceBasis === 'ambient' ? 'ambient' : 'similar';
-      const load = r.loadA !== null && r.referenceLoadA !== null ? ` · ${r.loadA} A of ${r.referenceLoadA} A` : '';
+      const load =
+        r.loadA !== null && r.referenceLoadA !== null && r.referenceLoadA > 0
+          ? ` · ${r.loadA} A of ${r.referenceLoadA} A (${percentOfNormal(r.loadA, r.referenceLoadA)} % of normal)`
+          : '';
       return `${r.temperatureC ?? '?'} °C vs ${r.referenceC ?? '?'} °C ${basis}${load}`;
     }
     case 'torque': {
