@@ -1,7 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { createContext, useContext } from 'react';
 import { api, isUnauthorised } from '@/lib/api';
-import { meResponse, type MeResponse, type SignInBody } from '@/shared/schemas';
+import { meResponse, sessionResponse, type MeResponse, type SignInBody } from '@/shared/schemas';
 import { keys } from './keys';
 
 /** Which user's cache is mounted, and how to change it (app/_layout.tsx provides it). */
@@ -27,8 +27,11 @@ export function useSession() {
     queryKey: keys.me,
     queryFn: async (): Promise<MeResponse | null> => {
       try {
-        return await api.get('/me', meResponse);
+        // signed out is `{ user: null }`, not a 401: a cold load logs no failed request
+        const session = await api.get('/me', sessionResponse);
+        return 'memberships' in session ? session : null;
       } catch (error) {
+        // a server of the previous release still answers 401
         if (isUnauthorised(error)) return null;
         throw error;
       }

@@ -7,7 +7,7 @@
 import { makeDataSource } from '../server/data-source';
 import { logger } from '../server/logger';
 import { seedDemo } from '../server/services/seed';
-import { DEMO_PASSWORD, DEMO_USERS } from './demo-data';
+import { DEMO_USERS } from './demo-data';
 
 async function main() {
   const command = process.argv[2];
@@ -17,12 +17,8 @@ async function main() {
       const ran = await ds.runMigrations({ transaction: 'each' });
       logger.info({ migrations: ran.map((m) => m.name) }, ran.length ? 'migrated' : 'schema up to date');
     } else if (command === 'seed-if-empty') {
-      if (await seedDemo(ds)) {
-        logger.info('demo scenario loaded');
-        process.stdout.write(
-          `Demo sign-ins (password "${DEMO_PASSWORD}"): ${DEMO_USERS.map((u) => u.email).join(', ')}\n`,
-        );
-      }
+      // the sign-ins are said once, by scripts/start.sh beside the address (and in the README)
+      if (await seedDemo(ds)) logger.info({ accounts: DEMO_USERS.length }, 'demo scenario loaded');
     } else if (command === 'reset') {
       await ds.dropDatabase();
       await ds.runMigrations({ transaction: 'each' });

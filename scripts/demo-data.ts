@@ -32,6 +32,7 @@ import type {
   PanelKind,
   PanelSystem,
 } from '../shared/domain';
+import { percentOfNormal } from '../shared/calc/thermal';
 
 export interface DemoCircuit {
   /** starting position (odd left column, even right column) */
@@ -1035,6 +1036,14 @@ const DEMO_BAND_SOURCE =
   'DEMO: invented for the demonstration, shaped like a small thermal-magnetic breaker. Not a maker\u2019s curve: ' +
   'read a real band off the maker\u2019s published time-current curve.';
 
+/**
+ * The autoclave's load during the survey: 11 A of its normal 12.5 A. The survey's "% of normal",
+ * the hot-lug reading and the finding's words all come from these two figures.
+ */
+const SURVEY_LOAD_A = 11;
+const SURVEY_NORMAL_A = 12.5;
+const SURVEY_LOAD_PCT = percentOfNormal(SURVEY_LOAD_A, SURVEY_NORMAL_A);
+
 export const DEMO_RECORD: DemoRecord = {
   buildingKey: 'clinic',
   panelKey: 'clinic-LA',
@@ -1087,7 +1096,7 @@ export const DEMO_RECORD: DemoRecord = {
       by: 'inspector',
       daysAgo: 20,
       ambientC: 23,
-      loadPct: 55,
+      loadPct: SURVEY_LOAD_PCT,
       notes: 'Dead-front off, clinic open, autoclave cycling. Scanned LA and LB.',
       signed: true,
     },
@@ -1135,8 +1144,8 @@ export const DEMO_RECORD: DemoRecord = {
       temperatureC: 58,
       referenceC: 36,
       referenceBasis: 'similar',
-      loadA: 11,
-      referenceLoadA: 12.5,
+      loadA: SURVEY_LOAD_A,
+      referenceLoadA: SURVEY_NORMAL_A,
       notes: 'Load lug of LA 28 against LA 22 beside it.',
     },
     {
@@ -1187,7 +1196,7 @@ export const DEMO_RECORD: DemoRecord = {
   deficiencies: [
     {
       title: 'Hot load lug, LA 28 (autoclave)',
-      description: 'ΔT 22 °C over the neighbouring lug at 88 % of normal load.',
+      description: `ΔT 22 °C over the neighbouring lug at ${SURVEY_LOAD_PCT} % of normal load.`,
       priority: 1,
       position: 28,
       readingKey: 'hot-lug',

@@ -12,6 +12,8 @@ if [ -z "${SMTP_HOST:-}" ]; then
   mail_up dev "${AMPWRIGHT_SMTP_PORT:-54331}" "${AMPWRIGHT_MAIL_WEB_PORT:-54332}"
   log "E-mail inbox (nothing leaves this machine): $MAIL_INBOX_URL/"
 fi
+# a person reads this terminal: readable log lines (JSON stays the default of a bare production process)
+export LOG_FORMAT="${LOG_FORMAT:-pretty}"
 log "Running migrations…"
 tsx_server scripts/db.ts migrate
 tsx_server scripts/db.ts seed-if-empty

@@ -21,6 +21,9 @@ const configSchema = z.object({
    * request came over https. Unset: `1` in production, `auto` elsewhere */
   COOKIE_SECURE: z.enum(['0', '1', 'auto']).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'silent']).default('info'),
+  /** `json` lines for a log collector (production's default) or `pretty` lines for a person
+   * (the default elsewhere, and what `npm start` asks for) */
+  LOG_FORMAT: z.enum(['json', 'pretty']).optional(),
   /** the address users open the app at, for links printed on paper (the directory's QR code);
    * unset: the scheme and host of the request that asked for the document */
   PUBLIC_URL: z.url({ error: 'a URL such as https://ampwright.example.net' }).optional(),

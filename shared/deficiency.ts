@@ -141,7 +141,7 @@ export function checkDeficiencyRaise(role: Role): string | null {
   return may(role, 'raise') ? null : cannot(role, 'raise');
 }
 
-/** Days to repair by priority, from the organisation's settings (defaults 7/30/90/365 [CP]). */
+/** Days to repair by priority, from the organisation's settings (defaults 0/30/90/365 [CP]: P1 is due the day raised). */
 export function dueOnFor(priority: Priority, raisedOn: string, dueDays: Record<Priority, number> = DEFAULT_DUE_DAYS): string {
   const date = new Date(`${raisedOn}T00:00:00Z`);
   date.setUTCDate(date.getUTCDate() + dueDays[priority]);

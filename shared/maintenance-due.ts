@@ -6,7 +6,9 @@
  * - Thermography is due from the last thermal-survey or full-maintenance inspection covering the
  *   panel (signed or not: the work was done on that day).
  * - Maintenance is due from the last full-maintenance inspection.
- * - With no inspection of that kind on record the task is due now ("no inspection on record").
+ * - With no inspection of that kind on record the task is due now; the words name the kind that is
+ *   missing ("no full maintenance on record") when the panel has other inspections, so a panel
+ *   with a survey and a torque audit never reads as uninspected.
  * - Deleted inspections do not count.
  */
 import { maintenanceIntervalMonths, nextDueDate, type MaintenanceTask } from './calc/maintenance';
@@ -42,6 +44,8 @@ export interface DueItem {
   /** the inspection the due date counts from; null when none is on record */
   lastInspectionId: string | null;
   lastDoneOn: string | null;
+  /** the latest inspection of any kind covering the panel (what the user remembers was done) */
+  lastInspection: { kind: InspectionKind; performedOn: string } | null;
   /** null when never inspected (due now) or when no interval is on file */
   dueOn: string | null;
   /** days from today to dueOn (negative = overdue); 0 when never inspected */
@@ -63,6 +67,15 @@ const KINDS_FOR: Record<MaintenanceTask, readonly InspectionKind[]> = {
 };
 
 const TASKS: readonly MaintenanceTask[] = ['thermography', 'maintenance'];
+
+/** What a task counts from, in words: "no full maintenance on record". */
+const COUNTS_FROM: Record<MaintenanceTask, string> = {
+  thermography: 'thermal survey or full maintenance',
+  maintenance: 'full maintenance',
+};
+
+const latest = (list: readonly DueInspection[]) =>
+  [...list].sort((a, b) => b.performedOn.localeCompare(a.performedOn) || b.id.localeCompare(a.id))[0];
 
 function daysBetween(from: string, to: string): number {
   return Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / 86_400_000);
@@ -92,11 +105,12 @@ export function maintenanceDue(
   const items: DueItem[] = [];
   for (const panel of panels) {
     if (panel.deletedAt) continue;
+    const covering = live.filter((i) => i.panelIds.includes(panel.id));
+    const any = latest(covering);
+    const lastInspection = any ? { kind: any.kind, performedOn: any.performedOn } : null;
     for (const task of TASKS) {
-      const last = live
-        .filter((i) => KINDS_FOR[task].includes(i.kind) && i.panelIds.includes(panel.id))
-        .sort((a, b) => b.performedOn.localeCompare(a.performedOn) || b.id.localeCompare(a.id))[0];
-      const base = { panelId: panel.id, buildingId: panel.buildingId, tag: panel.tag, task, condition: panel.condition };
+      const last = latest(covering.filter((i) => KINDS_FOR[task].includes(i.kind)));
+      const base = { panelId: panel.id, buildingId: panel.buildingId, tag: panel.tag, task, condition: panel.condition, lastInspection };
       if (!last) {
         const interval = maintenanceIntervalMonths(panel.kind, panel.condition, task);
         items.push({
@@ -107,7 +121,7 @@ export function maintenanceDue(
           daysLeft: 0,
           intervalMonths: interval?.months ?? null,
           state: 'never',
-          basis: `no inspection on record, so due now; after that: ${interval ? interval.basis : 'no interval on file for this equipment'}`,
+          basis: `once done, ${interval ? interval.basis : 'no interval on file for this equipment'}`,
           verified: interval?.verified ?? false,
         });
         continue;
@@ -154,11 +168,13 @@ export const TASK_LABELS: Record<MaintenanceTask, string> = {
   maintenance: 'Maintenance',
 };
 
-/** "overdue by 12 days", "due in 5 days", "due today", "no inspection on record" */
+/** "overdue by 12 days", "due in 5 days", "due today", "no full maintenance on record — due now" */
 export function dueWords(item: DueItem): string {
   switch (item.state) {
     case 'never':
-      return 'no inspection on record — due now';
+      return item.lastInspection
+        ? `no ${COUNTS_FROM[item.task]} on record — due now`
+        : 'no inspection on record — due now';
     case 'no-interval':
       return 'no interval on file';
     default: {

@@ -501,11 +501,28 @@ export const bandResponse = z.object({ band: bandSchema });
 
 // ---------- organisation settings ----------
 
-/** Days to repair by priority (our defaults: 7 / 30 / 90 / 365 [CP]). */
-export const DEFAULT_DUE_DAYS: Record<Priority, number> = { 1: 7, 2: 30, 3: 90, 4: 365 };
+/**
+ * Days to repair by priority, fitting the words (our defaults [CP]): P1 "now" the day it is
+ * raised, P2 "soon" within a month, P3 "planned" within a quarter, P4 "watch" by the next yearly
+ * survey.
+ */
+export const DEFAULT_DUE_DAYS: Record<Priority, number> = { 1: 0, 2: 30, 3: 90, 4: 365 };
 const days = num('days').int('whole days').min(0, 'cannot be negative').max(3650, 'at most 3650 days');
+/** Whole days per priority, never sooner for a lower priority (P1 ≤ P2 ≤ P3 ≤ P4). */
+const dueDaysSchema = z.object({ 1: days, 2: days, 3: days, 4: days }).superRefine((d, ctx) => {
+  for (const p of [2, 3, 4] as const) {
+    const before = (p - 1) as Priority;
+    if (d[p] < d[before]) {
+      ctx.addIssue({
+        code: 'custom',
+        path: [String(p)],
+        message: `${PRIORITY_LABELS[p]} must be at least ${d[before]} days, like ${PRIORITY_LABELS[before]}: a lower priority is never due sooner`,
+      });
+    }
+  }
+});
 export const organisationSettingsSchema = z.object({
-  dueDays: z.object({ 1: days, 2: days, 3: days, 4: days }),
+  dueDays: dueDaysSchema,
   /** keep GPS and other location metadata in uploaded photos (off: it is stripped) */
   keepPhotoLocation: z.boolean(),
 });

@@ -78,6 +78,9 @@ export type Membership = z.infer<typeof membershipSchema>;
 
 export const meResponse = z.object({ user: userSchema, memberships: z.array(membershipSchema) });
 export type MeResponse = z.infer<typeof meResponse>;
+/** `GET /api/me`: the signed-in user, or `{ user: null }` with no session (not a 401). */
+export const sessionResponse = z.union([meResponse, z.object({ user: z.null() })]);
+export type SessionResponse = z.infer<typeof sessionResponse>;
 
 // ---------- buildings ----------
 

@@ -5,10 +5,12 @@
  * only what is overdue, never inspected or due within 30 days).
  */
 import { useRouter } from 'expo-router';
-import { StyleSheet, View } from 'react-native';
+import { useState } from 'react';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { PressableCard } from '@/components/ui/card';
 import { useMaintenanceDue, type DueRow } from '@/hooks/use-maintenance';
 import { DUE_SOON_DAYS, dueWords, isDue, TASK_LABELS, type DueState } from '@/shared/maintenance-due';
+import { INSPECTION_KIND_LABELS } from '@/shared/records';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { EmptyState } from '@/components/ui/states';
 import { Text } from '@/components/ui/text';
@@ -23,9 +25,42 @@ const STATE_WORDS: Record<DueState, { word: string; tone: 'danger' | 'warn' | 'i
   'no-interval': { word: '? No interval on file', tone: 'soft' },
 };
 
+/**
+ * Where the due date comes from (condition, interval and its source, and whether the figure is
+ * from memory): behind a tap, so the row's main line says only what is due.
+ */
+function DueSource({ row }: { row: DueRow }) {
+  const [open, setOpen] = useState(false);
+  return (
+    <View>
+      <Pressable
+        accessibilityRole="button"
+        accessibilityState={{ expanded: open }}
+        accessibilityLabel={`Where this comes from: ${row.tag} ${TASK_LABELS[row.task]}`}
+        onPress={() => setOpen((o) => !o)}
+        style={styles.sourceToggle}
+        testID="due-source-toggle"
+      >
+        <Text variant="small" tone="soft">
+          {open ? '▾' : '▸'} Where this comes from
+        </Text>
+      </Pressable>
+      {open ? (
+        <Text variant="small" tone="soft" testID="due-source">
+          NFPA 70B condition {row.condition} · {row.basis}
+        </Text>
+      ) : null}
+    </View>
+  );
+}
+
 function DueRowView({ row, showBuilding }: { row: DueRow; showBuilding: boolean }) {
   const router = useRouter();
   const state = STATE_WORDS[row.state];
+  const lastOther =
+    row.state === 'never' && row.lastInspection
+      ? ` · last inspection ${INSPECTION_KIND_LABELS[row.lastInspection.kind].toLowerCase()} ${row.lastInspection.performedOn}`
+      : '';
   return (
     <PressableCard
       size="compact"
@@ -44,12 +79,10 @@ function DueRowView({ row, showBuilding }: { row: DueRow; showBuilding: boolean 
       </View>
       <Text variant="small" tone={state.tone === 'soft' ? 'ink' : state.tone} testID="due-words">
         {row.dueOn ? `${dueWords(row)} · due ${row.dueOn}` : dueWords(row)}
-        {row.lastDoneOn ? ` · last ${row.lastDoneOn}` : ''}
+        {row.lastDoneOn ? ` · last ${row.lastDoneOn}` : lastOther}
         {showBuilding ? ` · ${row.buildingName}` : ''}
       </Text>
-      <Text variant="small" tone="faint">
-        Condition {row.condition} · {row.basis}
-      </Text>
+      <DueSource row={row} />
     </PressableCard>
   );
 }
@@ -120,4 +153,5 @@ const styles = StyleSheet.create({
   rowHead: { flexDirection: 'row', alignItems: 'center', gap: space.sm, flexWrap: 'wrap' },
   tag: { backgroundColor: colours.ink, borderRadius: radii.sm, paddingHorizontal: space.sm },
   task: { flexGrow: 1 },
+  sourceToggle: { minHeight: MIN_TOUCH, justifyContent: 'center', alignSelf: 'flex-start' },
 });

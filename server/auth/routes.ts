@@ -1,7 +1,7 @@
 import bcrypt from 'bcryptjs';
 import { Router, type Request } from 'express';
 import type { DataSource } from 'typeorm';
-import { signInBody, type MeResponse } from '../../shared/schemas';
+import { signInBody, type MeResponse, type SessionResponse } from '../../shared/schemas';
 import { Membership, Organisation, User } from '../entities';
 import type { Role } from '../../shared/domain';
 import { DEFAULT_SETTINGS, type OrganisationSettings } from '../../shared/records';
@@ -9,7 +9,6 @@ import { AppError, UnauthorisedError } from '../http/errors';
 import { handle } from '../http/handle';
 import { signInLimiters, type LimitConfig } from '../http/rate-limits';
 import { logger } from '../logger';
-import { requireUser } from './session';
 
 // compared against when the e-mail is unknown, so both failures take the same time
 const NO_SUCH_USER_HASH = bcrypt.hashSync('no such user', 10);
@@ -94,6 +93,20 @@ export function authRouter(ds: DataSource, limits: LimitConfig): Router {
 
 export function meRouter(ds: DataSource): Router {
   const router = Router();
-  router.get('/me', requireUser(ds), handle({}, async (_input, req) => describeUser(ds, req.actor.userId)));
+  // who is signed in: "nobody" is an answer, not an error — the app asks on every cold load, and a
+  // 401 there would be a failed request in the browser's console before anyone signed in
+  router.get(
+    '/me',
+    handle({}, async (_input, req): Promise<SessionResponse> => {
+      const userId = req.session?.userId;
+      if (!userId) return { user: null };
+      try {
+        return await describeUser(ds, userId);
+      } catch (error) {
+        if (error instanceof UnauthorisedError) return { user: null };
+        throw error;
+      }
+    }),
+  );
   return router;
 }

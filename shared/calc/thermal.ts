@@ -54,7 +54,7 @@ export function loadCorrection({ riseC, measuredA, referenceA, exponent = 2 }: L
   finite('exponent', exponent);
   if (exponent < 1 || exponent > 3) throw new RangeError(`exponent must be between 1 and 3, got ${exponent}`);
   const loadFraction = measuredA / referenceA;
-  const pct = Math.round(100 * loadFraction);
+  const pct = percentOfNormal(measuredA, referenceA);
   if (loadFraction >= 1) {
     return {
       outcome: 'as-measured',
@@ -165,11 +165,22 @@ export function takenUnderLightLoad({ measuredA, normalA }: { measuredA: number;
 }
 
 /**
+ * The load at a reading as a whole percentage of its normal load (11 A of 12.5 A → 88): the one
+ * figure every screen, report and the demo's words give for it.
+ * @throws RangeError on a normal load not > 0 or a measured load < 0 or not finite.
+ */
+export function percentOfNormal(measuredA: number, normalA: number): number {
+  positive('normalA', normalA);
+  if (!Number.isFinite(measuredA) || measuredA < 0) throw new RangeError(`measuredA must be ≥ 0, got ${measuredA}`);
+  return Math.round((100 * measuredA) / normalA);
+}
+
+/**
  * A note to print beside a finding taken under less than 40 % of normal load (NFPA 70B 2023: the
  * load is recorded and a lighter-load finding says so), or null when the load was enough.
  */
 export function lightLoadNote({ measuredA, normalA }: { measuredA: number; normalA: number }): string | null {
   if (!takenUnderLightLoad({ measuredA, normalA })) return null;
-  const pct = Math.round((100 * measuredA) / normalA);
+  const pct = percentOfNormal(measuredA, normalA);
   return `Taken at ${pct} % of normal load, under the 40 % NFPA 70B asks for: the rise at full load will be higher.`;
 }

@@ -244,6 +244,22 @@ describe('GET /api/inspections/:id/report.pdf', () => {
     assert.ok(text.includes('Component temperature:'), 'the component against its rating');
   });
 
+  it('keeps the sign-off with the last section: its page also carries the last panel\u2019s load', async () => {
+    const [torque] = await ctx.ds.query(`SELECT id FROM inspection WHERE building_id = $1 AND kind = 'torque-audit'`, [ids.clinicId]);
+    for (const id of [surveyId, torque.id as string]) {
+      const pages = pdfText(assertPdf(await getPdf(admin, `/api/inspections/${id}/report.pdf`))).split('\f');
+      const signOff = pages.find((p) => /^Sign-off$/m.test(p));
+      assert.ok(signOff, 'a sign-off heading');
+      // what else is on that page, less the heading, the sign-off's own lines and the page footer
+      const rest = signOff
+        .split('\n')
+        .map((l) => l.trim())
+        .filter((l) => l && l !== 'Sign-off' && !/page \d+ of \d+$/.test(l))
+        .filter((l) => !/^(Marisol Fenwright|signed this inspection|NOT SIGNED|The inspector has not signed|inspection: its readings|UTC; its readings)/.test(l));
+      assert.ok(rest.some((l) => /^Panel \S+ — /.test(l)), `the sign-off page has the last panel's load too:\n${signOff}`);
+    }
+  });
+
   it('says NOT SIGNED for an open inspection', async () => {
     const [torque] = await ctx.ds.query(`SELECT id FROM inspection WHERE building_id = $1 AND kind = 'torque-audit'`, [ids.clinicId]);
     const text = squash(pdfText(assertPdf(await getPdf(admin, `/api/inspections/${torque.id}/report.pdf`))));

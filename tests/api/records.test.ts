@@ -243,14 +243,14 @@ describe('deficiencies', () => {
   }
   const row = async (id: string) => (await ctx.ds.query('SELECT * FROM deficiency WHERE id = $1', [id]))[0];
 
-  it('the due date follows the priority: 7 / 30 / 90 / 365 days by default', async () => {
+  it('the due date follows the priority: 0 / 30 / 90 / 365 days by default (P1 now: due the day raised)', async () => {
     const today = new Date().toISOString().slice(0, 10);
     const plus = (days: number) => {
       const d = new Date(`${today}T00:00:00Z`);
       d.setUTCDate(d.getUTCDate() + days);
       return d.toISOString().slice(0, 10);
     };
-    assert.equal((await row(await raise({ priority: 1 }))).due_on, plus(7));
+    assert.equal((await row(await raise({ priority: 1 }))).due_on, plus(0));
     assert.equal((await row(await raise({ priority: 4 }))).due_on, plus(365));
     // a new priority moves it, and needs a reason
     const id = await raise({ priority: 3 });
@@ -263,12 +263,17 @@ describe('deficiencies', () => {
   it('the organisation\u2019s own due days, set by an admin, apply to new deficiencies', async () => {
     const me = (await admin.get('/api/me')).body;
     const orgId = me.memberships[0].organisationId as string;
-    assert.deepEqual(me.memberships[0].settings.dueDays, { 1: 7, 2: 30, 3: 90, 4: 365 });
+    // P1 "now" is due the day it is raised (defaults 0/30/90/365 [CP])
+    assert.deepEqual(me.memberships[0].settings.dueDays, { 1: 0, 2: 30, 3: 90, 4: 365 });
     const denied = await inspector.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 1, 2: 2, 3: 3, 4: 4 } });
     assert.equal(denied.status, 403);
     const bad = await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: -1, 2: 2, 3: 3, 4: 4 } });
     assert.equal(bad.status, 400);
     assert.ok(bad.body.error.fields['dueDays.1'], JSON.stringify(bad.body));
+    // a lower priority never due sooner than a higher one: the field out of order is named
+    const unordered = await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 0, 2: 30, 3: 14, 4: 365 } });
+    assert.equal(unordered.status, 400);
+    assert.deepEqual(Object.keys(unordered.body.error.fields), ['dueDays.3'], JSON.stringify(unordered.body));
     const set = await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 2, 2: 14, 3: 60, 4: 180 } });
     assert.equal(set.status, 200, JSON.stringify(set.body));
     try {
@@ -277,7 +282,7 @@ describe('deficiencies', () => {
       d.setUTCDate(d.getUTCDate() + 2);
       assert.equal((await row(id)).due_on, d.toISOString().slice(0, 10));
     } finally {
-      await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 7, 2: 30, 3: 90, 4: 365 } });
+      await admin.patch(`/api/organisations/${orgId}/settings`).send({ dueDays: { 1: 0, 2: 30, 3: 90, 4: 365 } });
     }
   });
 

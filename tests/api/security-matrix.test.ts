@@ -33,6 +33,7 @@ let foreignAdmin: request.Agent;
 /** Routes anyone may call, and why. */
 const PUBLIC: Record<string, string> = {
   'GET /api/health': 'load balancers probe it without a session',
+  'GET /api/me': 'the app asks who is signed in on every cold load: no session is the answer { user: null }',
   'POST /api/auth/sign-in': 'signing in is how a session starts',
   'POST /api/auth/sign-out': 'ending a session that may already have expired',
   'POST /api/auth/forgot-password': 'a person who cannot sign in asks for a reset link',

@@ -126,7 +126,8 @@ test('an admin sets the days to repair by priority; a bad number is named, a sav
   await signIn(page, 'admin');
   await page.goto('/me');
   const card = page.getByTestId('organisation-settings');
-  await expect(card.getByTestId('setting-due-1')).toHaveValue('7');
+  // P1 "now": due the day it is raised
+  await expect(card.getByTestId('setting-due-1')).toHaveValue('0');
   await card.getByTestId('setting-due-1').fill('-2');
   await card.getByTestId('save-settings').click();
   await expect(card).toContainText('cannot be negative');
@@ -137,7 +138,12 @@ test('an admin sets the days to repair by priority; a bad number is named, a sav
   expect(org.settings.dueDays['1']).toBe(3);
   await page.screenshot({ path: `${ARTIFACTS}/settings-phone.png`, fullPage: true });
   // put the defaults back for the other tests
-  await card.getByTestId('setting-due-1').fill('7');
+  // a lower priority may not be due sooner: named under its field
+  await card.getByTestId('setting-due-3').fill('2');
   await card.getByTestId('save-settings').click();
-  await expect.poll(async () => (await query<{ settings: { dueDays: Record<string, number> } }>('SELECT settings FROM organisation LIMIT 1'))[0].settings.dueDays['1']).toBe(7);
+  await expect(card).toContainText('a lower priority is never due sooner');
+  await card.getByTestId('setting-due-3').fill('90');
+  await card.getByTestId('setting-due-1').fill('0');
+  await card.getByTestId('save-settings').click();
+  await expect.poll(async () => (await query<{ settings: { dueDays: Record<string, number> } }>('SELECT settings FROM organisation LIMIT 1'))[0].settings.dueDays['1']).toBe(0);
 });

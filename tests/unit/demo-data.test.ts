@@ -7,10 +7,12 @@ import {
   DEMO_ORGANISATION,
   DEMO_OWNER_BUILDING_KEY,
   DEMO_PASSWORD,
+  DEMO_RECORD,
   DEMO_USERS,
   type DemoCircuit,
   type DemoPanel,
 } from '../../scripts/demo-data';
+import { percentOfNormal } from '../../shared/calc/thermal';
 import {
   BREAKER_TYPES,
   CIRCUIT_STATUSES,
@@ -256,6 +258,17 @@ describe('demo scenario', () => {
     assert.match(warnings[0].message, /40 A at 60 °C/);
     // the same circuit with terminations marked 75 °C would be fine: the panel's record decides
     assert.deepEqual(circuitWarnings(range, { ...lc1, terminationTempC: 75 }), []);
+  });
+
+  it('gives the survey\u2019s load as one figure: the hot-lug reading\u2019s amps, the survey\u2019s % of normal and the finding\u2019s words agree', () => {
+    const lug = DEMO_RECORD.readings.find((r) => r.key === 'hot-lug');
+    assert.ok(lug);
+    const pct = percentOfNormal(Number(lug.loadA), Number(lug.referenceLoadA));
+    assert.equal(pct, 88, '11 A of a normal 12.5 A');
+    const survey = DEMO_RECORD.inspections.find((i) => i.key === 'survey');
+    assert.equal(survey?.loadPct, pct);
+    const finding = DEMO_RECORD.deficiencies.find((d) => d.readingKey === 'hot-lug');
+    for (const said of finding?.description.match(/\d+(?:\.\d+)? ?% of normal/g) ?? []) assert.equal(said.replace(/ ?% of normal/, ''), String(pct));
   });
 
   it('has the four demo users, one per role', () => {

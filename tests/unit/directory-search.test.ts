@@ -46,3 +46,65 @@ describe('directory search', () => {
     assert.deepEqual(ids(''), []);
   });
 });
+
+/**
+ * The words people use (shared/trade-thesaurus.ts) and typos (fuse.js). Descriptions invented;
+ * the abbreviations are the common ones on panel directories [CP].
+ */
+describe('directory search by the words people use', () => {
+  const trade = [
+    c('fr', 'p1', 1, 'Vaccine refrigerator, nurse station'),
+    c('fg', 'p1', 2, 'Staff fridge'),
+    c('fz', 'p1', 3, 'Chest freezer, store'),
+    c('wc', 'p1', 4, 'Walk-in cooler'),
+    c('rt', 'p1', 5, 'RTU-1 rooftop', 3),
+    c('ah', 'p1', 11, 'AHU-2 supply fan', 3),
+    c('cd', 'p1', 17, 'Condenser CU-3', 2),
+    c('rc', 'p1', 19, 'Recepts, exam 2'),
+    c('ou', 'p1', 21, 'Outlets corridor'),
+    c('lt', 'p1', 23, 'Ltg, exam 2'),
+    c('wh', 'p1', 25, 'EWH-1', 2),
+    c('wh2', 'p1', 27, 'Water heater, laundry', 2),
+    c('kt', 'p1', 29, 'Kit counter GFI'),
+    c('br', 'p1', 31, 'BR 2 lts & recs'),
+    c('ba', 'p1', 33, 'Bathroom GFCI'),
+  ];
+  const found = (q: string) => searchDirectory(q, panels, trade).map((m) => m.circuit.id);
+
+  it('"fridge" finds refrigerators first, then what a fridge is a kind of less strongly', () => {
+    // the user's own word ranks before its synonym; coolers and freezers (narrower) come last
+    assert.deepEqual(found('fridge'), ['fg', 'fr', 'fz', 'wc']);
+    assert.deepEqual(found('which breaker feeds the vaccine fridge'), ['fr']);
+    // a narrower word does not widen: a freezer is not every fridge
+    assert.deepEqual(found('freezer'), ['fz']);
+  });
+
+  it('air conditioning finds the units it is made of; a unit finds only itself', () => {
+    assert.deepEqual(found('A/C'), ['rt', 'ah', 'cd']);
+    assert.deepEqual(found('hvac'), ['rt', 'ah', 'cd']);
+    assert.deepEqual(found('air handler'), ['ah']);
+    assert.deepEqual(found('rooftop unit'), ['rt']);
+    assert.deepEqual(found('condensing unit'), ['cd']);
+  });
+
+  it('receptacles, lights, water heaters, rooms and GFCI by their short forms', () => {
+    assert.deepEqual(found('receptacle'), ['rc', 'ou', 'br']);
+    assert.deepEqual(found('plugs exam'), ['rc']);
+    assert.deepEqual(found('lighting'), ['lt', 'br']);
+    assert.deepEqual(found('water heater'), ['wh2', 'wh']);
+    assert.deepEqual(found('WH'), ['wh', 'wh2']);
+    assert.deepEqual(found('kitchen'), ['kt']);
+    assert.deepEqual(found('bedroom'), ['br']);
+    assert.deepEqual(found('bath'), ['ba']);
+    assert.deepEqual(found('gfci'), ['ba', 'kt']);
+  });
+
+  it('a typo still finds the word meant (fuse.js), ranked below an exact match', () => {
+    assert.deepEqual(found('refrigerater'), ['fr', 'fg']);
+    assert.deepEqual(found('vacine'), ['fr']);
+    assert.deepEqual(found('condensor'), ['cd']);
+    // short words are not guessed at: three letters are too few to tell a typo from another word
+    assert.deepEqual(found('kat'), []);
+    assert.deepEqual(found('hot tub'), []);
+  });
+});

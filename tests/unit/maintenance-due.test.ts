@@ -83,7 +83,26 @@ describe('maintenance due list (NFPA 70B 2023 intervals as shared/calc/maintenan
     assert.equal(dueWords(first), 'no inspection on record — due now');
     assert.equal(isDue(first), true);
     assert.equal(first.task, 'maintenance');
-    assert.match(first.basis, /after that: NFPA 70B 2023, panelboards in condition 1: every 60 months/);
+    assert.match(first.basis, /once done, NFPA 70B 2023, panelboards in condition 1: every 60 months/);
+  });
+
+  it('a panel with other inspections but no full maintenance says which is missing, not "no inspection on record"', () => {
+    // the demo's panel LA: a thermal survey and a torque audit, never a full maintenance
+    const items = maintenanceDue(
+      [panel('la', 2)],
+      [insp('s', 'thermal-survey', '2026-05-26', ['la']), insp('q', 'torque-audit', '2026-05-28', ['la'])],
+      today,
+    );
+    const m = find(items, 'la', 'maintenance');
+    assert.equal(m.state, 'never');
+    assert.equal(dueWords(m), 'no full maintenance on record — due now');
+    assert.doesNotMatch(m.basis, /no inspection on record/);
+    assert.deepEqual(m.lastInspection, { kind: 'torque-audit', performedOn: '2026-05-28' });
+    assert.equal(find(items, 'la', 'thermography').state, 'later');
+    // a panel never inspected at all still says so
+    const [x] = maintenanceDue([panel('x', 1)], [insp('s', 'thermal-survey', '2026-05-26', ['la'])], today);
+    assert.equal(dueWords(x), 'no inspection on record — due now');
+    assert.equal(x.lastInspection, null);
   });
 
   it('a switchboard has no maintenance interval on file (calc returns null): said so, not counted as due', () => {

@@ -2,6 +2,7 @@
 import { StyleSheet, View } from 'react-native';
 import { Card, PressableCard } from '@/components/ui/card';
 import type { Assessment } from '@/shared/assess';
+import { percentOfNormal } from '@/shared/calc/thermal';
 import { THERMAL_COMPONENT_LABELS, type Reading } from '@/shared/records';
 import type { Circuit } from '@/shared/schemas';
 import { circuitName, fastenerText, READING_KIND_LABELS } from '@/components/inspections/inspection-format';
@@ -16,7 +17,10 @@ export function readingValues(r: Reading, circuit: Circuit | null, unit: Tempera
   switch (r.kind) {
     case 'thermal': {
       const basis = r.referenceBasis === 'ambient' ? 'ambient' : 'similar';
-      const load = r.loadA !== null && r.referenceLoadA !== null ? ` · ${r.loadA} A of ${r.referenceLoadA} A` : '';
+      const load =
+        r.loadA !== null && r.referenceLoadA !== null && r.referenceLoadA > 0
+          ? ` · ${r.loadA} A of ${r.referenceLoadA} A (${percentOfNormal(r.loadA, r.referenceLoadA)} % of normal)`
+          : '';
       return `${formatTemp(r.temperatureC, unit, 'absolute')} vs ${formatTemp(r.referenceC, unit, 'absolute')} ${basis}${load}`;
     }
     case 'torque': {

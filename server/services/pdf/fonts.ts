@@ -109,3 +109,11 @@ export function printable(text: string): string {
 export function dayOf(value: Date | string): string {
   return (typeof value === 'string' ? value : value.toISOString()).slice(0, 10);
 }
+
+/** One line of a block the report measures before it prints (to keep a block on one page). */
+export interface PrintedLine {
+  font: string;
+  size: number;
+  colour: string;
+  text: string;
+}

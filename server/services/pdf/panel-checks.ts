@@ -10,7 +10,7 @@ import { SYSTEM_INFO } from '../../../shared/domain';
 import { breakerName, componentRatingC, faultSourceText, panelFaultCheck } from '../../../shared/panel-checks';
 import { formatTemp, type TemperatureUnit } from '../../../shared/units';
 import { User, type Circuit, type Panel, type Reading } from '../../entities';
-import { FONT, INK, PRIORITY_COLOURS, SOFT, printable } from './fonts';
+import { FONT, INK, PRIORITY_COLOURS, SOFT, printable, type PrintedLine } from './fonts';
 
 /** Display names of the people who verified breakers (ids of rows the report prints). */
 export async function verifierNames(em: EntityManager, circuits: readonly Circuit[]): Promise<Map<string, string>> {
@@ -43,29 +43,34 @@ export function componentTempText(r: Reading, circuit: Circuit | undefined, pane
   return { text: `Component temperature: ${check.message} (${rating.basis}; NEC 110.14(C))`, over: check.over };
 }
 
-/** The fault-current, breaker and clamp-reading lines of one panel, under its load. */
-export function panelChecksBlock(doc: PDFKit.PDFDocument, panel: Panel, circuits: readonly Circuit[], names: ReadonlyMap<string, string>, width: number): void {
+/**
+ * The fault-current, breaker and clamp-reading lines of one panel, under its load: as lines, so
+ * the report can measure them and keep the last panel together with the sign-off.
+ */
+export function panelChecksLines(panel: Panel, circuits: readonly Circuit[], names: ReadonlyMap<string, string>): PrintedLine[] {
+  const lines: PrintedLine[] = [];
+  const line = (font: string, size: number, colour: string, text: string) => lines.push({ font, size, colour, text });
   const check = panelFaultCheck(panel, circuits);
   if (!check.judged) {
-    doc.font(FONT.text).fontSize(9).fillColor(SOFT).text(check.reason, { width });
+    line(FONT.text, 9, SOFT, check.reason);
   } else {
     const below = check.findings.length;
     const source = faultSourceText(panel);
-    doc.font(FONT.bold).fontSize(9.5).fillColor(below ? PRIORITY_COLOURS[1] : INK)
-      .text(`Available fault current ${check.availableKA} kA${source ? ` (${source})` : ''}: ${below ? `${below} rated below it` : 'every recorded rating is at least that'} (NEC 110.9, 110.10).`, { width });
-    for (const f of check.findings) doc.font(FONT.text).fontSize(9).fillColor(INK).text(printable(f.message), { width });
-    if (check.notRecorded.length) doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(`Rating not recorded, not judged: ${check.notRecorded.length} (${check.notRecorded.slice(0, 4).join(', ')}${check.notRecorded.length > 4 ? ', …' : ''}).`, { width });
-    if (check.seriesNote) doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(printable(`${check.seriesNote}${panel.seriesRatingNote ? ` Marked: ${panel.seriesRatingNote}.` : ''}`), { width });
+    line(FONT.bold, 9.5, below ? PRIORITY_COLOURS[1] : INK,
+      `Available fault current ${check.availableKA} kA${source ? ` (${source})` : ''}: ${below ? `${below} rated below it` : 'every recorded rating is at least that'} (NEC 110.9, 110.10).`);
+    for (const f of check.findings) line(FONT.text, 9, INK, printable(f.message));
+    if (check.notRecorded.length) line(FONT.text, 8.5, SOFT, `Rating not recorded, not judged: ${check.notRecorded.length} (${check.notRecorded.slice(0, 4).join(', ')}${check.notRecorded.length > 4 ? ', …' : ''}).`);
+    if (check.seriesNote) line(FONT.text, 8.5, SOFT, printable(`${check.seriesNote}${panel.seriesRatingNote ? ` Marked: ${panel.seriesRatingNote}.` : ''}`));
   }
   const breakers = circuits.filter((c) => c.status !== 'space');
   const verified = breakers.filter((c) => c.verifiedOn);
-  doc.font(FONT.text).fontSize(9).fillColor(INK).text(`Verified at the panel: ${verified.length} of ${breakers.length} breakers.`, { width });
+  line(FONT.text, 9, INK, `Verified at the panel: ${verified.length} of ${breakers.length} breakers.`);
   for (const c of verified.slice(0, 12)) {
     const identity = [c.breakerMake, c.catalogueNumber].filter(Boolean).join(' ');
-    doc.font(FONT.mono).fontSize(8.5).fillColor(SOFT)
-      .text(printable(`${breakerName(c)}${identity ? ` ${identity}` : ''}${c.interruptingKA ? `, ${c.interruptingKA} kA` : ''}: verified on ${c.verifiedOn} by ${names.get(c.verifiedBy ?? '') ?? 'someone no longer listed'}`), { width });
+    line(FONT.mono, 8.5, SOFT,
+      printable(`${breakerName(c)}${identity ? ` ${identity}` : ''}${c.interruptingKA ? `, ${c.interruptingKA} kA` : ''}: verified on ${c.verifiedOn} by ${names.get(c.verifiedBy ?? '') ?? 'someone no longer listed'}`));
   }
-  if (verified.length > 12) doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(`and ${verified.length - 12} more.`, { width });
+  if (verified.length > 12) line(FONT.text, 8.5, SOFT, `and ${verified.length - 12} more.`);
   const phases = [panel.measuredA, panel.measuredB, panel.measuredC];
   if (phases.some((x) => x !== null) || panel.measuredN !== null) {
     const fourWire = SYSTEM_INFO[panel.system].phases === 3 && SYSTEM_INFO[panel.system].neutralV !== null;
@@ -74,7 +79,8 @@ export function panelChecksBlock(doc: PDFKit.PDFDocument, panel: Panel, circuits
     const words = [
       ['A', a], ['B', b], ['C', c], ['N', panel.measuredN],
     ].filter(([, x]) => x !== null).map(([p, x]) => `${p} ${x} A`).join(' · ');
-    doc.font(FONT.mono).fontSize(9).fillColor(INK).text(`Measured${panel.measuredOn ? ` ${panel.measuredOn}` : ''}: ${words}${neutral !== null ? ` · neutral from the phases ${neutral.toFixed(1)} A` : ''}`, { width });
-    if (neutral !== null) doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(NEUTRAL_CAUTION, { width });
+    line(FONT.mono, 9, INK, `Measured${panel.measuredOn ? ` ${panel.measuredOn}` : ''}: ${words}${neutral !== null ? ` · neutral from the phases ${neutral.toFixed(1)} A` : ''}`);
+    if (neutral !== null) line(FONT.text, 8.5, SOFT, NEUTRAL_CAUTION);
   }
+  return lines;
 }

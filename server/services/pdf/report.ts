@@ -23,12 +23,12 @@ import type { Actor } from '../../auth/access';
 import type { Circuit, Panel, Photo, Reading } from '../../entities';
 import { loadInspection } from '../inspection-record';
 import type { PhotoStore } from '../photo-store';
-import { COPPER, FONT, INK, PRIORITY_COLOURS, RULE, SOFT, dayOf, finish, newDocument, printable } from './fonts';
+import { COPPER, FONT, INK, PRIORITY_COLOURS, RULE, SOFT, dayOf, finish, newDocument, printable, type PrintedLine } from './fonts';
 import { slug } from './directory';
 import { drawBandPlot } from './band-plot';
 import { bandPlotView, plotTestOf } from '../../../shared/band-plot-words';
 import { formatTemp, type TemperatureUnit } from '../../../shared/units';
-import { componentTempText, panelChecksBlock, thermographyText, verifierNames } from './panel-checks';
+import { componentTempText, panelChecksLines, thermographyText, verifierNames } from './panel-checks';
 
 const MARGIN = 48;
 const THUMB_PT = 110;
@@ -41,6 +41,40 @@ function roomLeft(doc: PDFKit.PDFDocument): number {
 }
 function keepTogether(doc: PDFKit.PDFDocument, height: number): void {
   if (roomLeft(doc) < height) doc.addPage();
+}
+
+/** One block of text as printed: measured first (to keep a block on one page), then printed. */
+/** What a heading takes: its space above, the 13 pt line and the rule under it. */
+const SIGN_OFF_HEADING_PT = 44;
+
+function linesHeight(doc: PDFKit.PDFDocument, lines: readonly PrintedLine[], width: number): number {
+  return lines.reduce((sum, l) => sum + doc.font(l.font).fontSize(l.size).heightOfString(l.text, { width }), 0);
+}
+function printLines(doc: PDFKit.PDFDocument, lines: readonly PrintedLine[], width: number): void {
+  for (const [i, l] of lines.entries()) {
+    doc.font(l.font).fontSize(l.size).fillColor(l.colour);
+    if (i === 0) doc.text(l.text, MARGIN, doc.y, { width });
+    else doc.text(l.text, { width });
+  }
+}
+
+/** The sign-off's lines: who signed and when, or that nobody has. */
+function signOffLines(inspection: { signedAt: Date | null; signedByName: string | null }): PrintedLine[] {
+  if (inspection.signedAt) {
+    return [
+      { font: FONT.bold, size: 11, colour: INK, text: inspection.signedByName || 'The inspector' },
+      {
+        font: FONT.text,
+        size: 10,
+        colour: INK,
+        text: `signed this inspection on ${inspection.signedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC; its readings are frozen.`,
+      },
+    ];
+  }
+  return [
+    { font: FONT.bold, size: 12, colour: PRIORITY_COLOURS[1], text: 'NOT SIGNED' },
+    { font: FONT.text, size: 10, colour: INK, text: 'The inspector has not signed this inspection: its readings may still change.' },
+  ];
 }
 
 function heading(doc: PDFKit.PDFDocument, text: string): void {
@@ -292,46 +326,53 @@ export async function inspectionReportPdf(
     doc.moveDown(0.6);
   }
 
-  // ---- load per panel
+  // ---- load per panel, then the sign-off: the last panel's load and the sign-off share a page,
+  // so a signature never stands alone on the last page
+  const signOff = signOffLines(inspection);
   heading(doc, 'Panel load and checks (from the schedule on record)');
   const names = await verifierNames(ds.manager, record.circuits);
-  for (const panel of panels) {
-    keepTogether(doc, 70);
+  panels.forEach((panel, index) => {
     const circuits = record.circuits.filter((c) => c.panelId === panel.id);
     const load = panelLoad(panel, circuits);
     const phases = Object.entries(load.phases)
       .map(([phase, p]) => `${phase} ${p.amps.toFixed(1)} A`)
       .join(' · ');
-    doc.font(FONT.bold).fontSize(10.5).fillColor(INK).text(`Panel ${panel.tag} — ${printable(SYSTEM_INFO[panel.system].label)}`, MARGIN, doc.y, { width });
-    doc.font(FONT.mono).fontSize(9).fillColor(INK)
-      .text(
-        `${PANEL_LOAD_FIGURES.connected.label} ${(load.totalVA / 1000).toFixed(1)} kVA · ${PANEL_LOAD_FIGURES.sizing.label} ` +
+    const lines: PrintedLine[] = [
+      { font: FONT.bold, size: 10.5, colour: INK, text: `Panel ${panel.tag} — ${printable(SYSTEM_INFO[panel.system].label)}` },
+      {
+        font: FONT.mono,
+        size: 9,
+        colour: INK,
+        text:
+          `${PANEL_LOAD_FIGURES.connected.label} ${(load.totalVA / 1000).toFixed(1)} kVA · ${PANEL_LOAD_FIGURES.sizing.label} ` +
           `${(load.sizingVA / 1000).toFixed(1)} kVA · per phase ${phases}`,
-        { width },
-      )
-      .text(
-        `Worst phase sizing current ${load.utilisationPct === null ? 'n/a' : `${load.utilisationPct.toFixed(0)} %`} of ${load.capacityA ?? '—'} A · imbalance ${load.imbalancePct.toFixed(0)} %`,
-        { width },
-      );
-    doc.font(FONT.text).fontSize(8.5).fillColor(SOFT).text(
-      `${PANEL_LOAD_FIGURES.connected.label}: ${PANEL_LOAD_FIGURES.connected.rule}. ${PANEL_LOAD_FIGURES.sizing.label}: ` +
-        `${PANEL_LOAD_FIGURES.sizing.rule}; not an NEC 220 demand load. Imbalance as NEMA MG 1 defines it. ` +
-        'Only circuits with a recorded load count.',
-      { width },
-    );
-    panelChecksBlock(doc, panel, circuits, names, width);
+      },
+      {
+        font: FONT.mono,
+        size: 9,
+        colour: INK,
+        text: `Worst phase sizing current ${load.utilisationPct === null ? 'n/a' : `${load.utilisationPct.toFixed(0)} %`} of ${load.capacityA ?? '—'} A · imbalance ${load.imbalancePct.toFixed(0)} %`,
+      },
+      {
+        font: FONT.text,
+        size: 8.5,
+        colour: SOFT,
+        text:
+          `${PANEL_LOAD_FIGURES.connected.label}: ${PANEL_LOAD_FIGURES.connected.rule}. ${PANEL_LOAD_FIGURES.sizing.label}: ` +
+          `${PANEL_LOAD_FIGURES.sizing.rule}; not an NEC 220 demand load. Imbalance as NEMA MG 1 defines it. ` +
+          'Only circuits with a recorded load count.',
+      },
+      ...panelChecksLines(panel, circuits, names),
+    ];
+    const last = index === panels.length - 1;
+    keepTogether(doc, linesHeight(doc, lines, width) + (last ? SIGN_OFF_HEADING_PT + linesHeight(doc, signOff, width) : 0));
+    printLines(doc, lines, width);
     doc.moveDown(0.5);
-  }
+  });
 
-  // ---- sign-off and caution
+  // ---- sign-off
   heading(doc, 'Sign-off');
-  if (inspection.signedAt) {
-    doc.font(FONT.bold).fontSize(11).fillColor(INK).text(inspection.signedByName || 'The inspector', MARGIN, doc.y, { width });
-    doc.font(FONT.text).fontSize(10).text(`signed this inspection on ${inspection.signedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC; its readings are frozen.`, { width });
-  } else {
-    doc.font(FONT.bold).fontSize(12).fillColor(PRIORITY_COLOURS[1]).text('NOT SIGNED', MARGIN, doc.y, { width });
-    doc.font(FONT.text).fontSize(10).fillColor(INK).text('The inspector has not signed this inspection: its readings may still change.', { width });
-  }
+  printLines(doc, signOff, width);
 
   // page numbers
   const range = doc.bufferedPageRange();

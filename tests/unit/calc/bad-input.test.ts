@@ -64,6 +64,7 @@ const CASES: Case[] = [
   { fn: 'loadCorrectedRiseC', what: 'rise', valid: () => calc.loadCorrectedRiseC({ riseC: 5, measuredA: 50, referenceA: 100 }), bad: (x) => calc.loadCorrectedRiseC({ riseC: x, measuredA: 50, referenceA: 100 }), values: [Number.NaN, Number.POSITIVE_INFINITY] },
   { fn: 'thermalPriority', what: 'rise', valid: () => calc.thermalPriority({ riseC: 5, basis: 'similar' }), bad: (x) => calc.thermalPriority({ riseC: x, basis: 'similar' }), values: [Number.NaN, Number.POSITIVE_INFINITY] },
   { fn: 'takenUnderLightLoad', what: 'measured load', valid: () => calc.takenUnderLightLoad({ measuredA: 5, normalA: 10 }), bad: (x) => calc.takenUnderLightLoad({ measuredA: x, normalA: 10 }) },
+  { fn: 'percentOfNormal', what: 'normal load', valid: () => calc.percentOfNormal(11, 12.5), bad: (x) => calc.percentOfNormal(11, x) },
   { fn: 'lightLoadNote', what: 'measured load', valid: () => calc.lightLoadNote({ measuredA: 5, normalA: 10 }), bad: (x) => calc.lightLoadNote({ measuredA: x, normalA: 10 }) },
   { fn: 'tripBand', what: 'multiple', valid: () => calc.tripBand([{ multiple: 2, minS: 1, maxS: 10 }], 2), bad: (x) => calc.tripBand([{ multiple: 2, minS: 1, maxS: 10 }], x) },
   { fn: 'netaMaxTripS300', what: 'rating', valid: () => calc.netaMaxTripS300({ ratingA: 20, voltageV: 120 }), bad: (x) => calc.netaMaxTripS300({ ratingA: x, voltageV: 120 }) },
