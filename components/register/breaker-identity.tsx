@@ -8,7 +8,6 @@ import { useCircuitWrites } from '@/hooks/use-outbox';
 import { useMembership } from '@/hooks/use-records';
 import { can } from '@/shared/permissions';
 import { todayISO } from '@/shared/deficiency';
-import { can } from '@/shared/permissions';
 import type { Building, Circuit, Panel } from '@/shared/schemas';
 import { breakerFaultFinding } from './fault-check';
 
