@@ -17,10 +17,10 @@ export const PRIORITY_COLOURS: Record<Priority, string> = {
 
 /** Light tints of the priority colours, for the chip's ground (text stays ink for contrast). */
 const PRIORITY_TINTS: Record<Priority, string> = {
-  1: '#F7E0DE',
-  2: '#FBEBD3',
-  3: '#DDEAF2',
-  4: '#E4EDDD',
+  1: colours.p1Soft,
+  2: colours.p2Soft,
+  3: colours.p3Soft,
+  4: colours.p4Soft,
 };
 
 export function PriorityChip({ priority, size = 'normal' }: { priority: Priority | null; size?: 'normal' | 'small' }) {

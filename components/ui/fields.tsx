@@ -108,6 +108,9 @@ export function ChoiceField<T extends string | number | boolean | null>({
               key={String(choice.value)}
               accessibilityRole="radio"
               accessibilityState={{ checked: selected, disabled }}
+              // React Native Web reads aria-* (not accessibilityState): a screen reader hears "checked"
+              aria-checked={selected}
+              aria-disabled={disabled}
               accessibilityLabel={`${label}: ${choice.label}`}
               disabled={disabled}
               onPress={() => onChange(choice.value)}
