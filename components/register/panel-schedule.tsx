@@ -115,47 +115,49 @@ function CircuitSummary({
 
 function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }: Laid) {
   return (
-    <View style={styles.phoneList} accessibilityRole="list" testID="schedule-phone">
+    <View style={styles.phoneList} role="list" aria-label="Positions" testID="schedule-phone">
       {positions.map(({ position, phase, starts, continues }) => {
         const circuit = starts ?? continues;
         const onPress = circuit ? () => onOpenCircuit(circuit) : canEdit ? () => onAddAt(position) : undefined;
         return (
-          <Pressable
-            key={position}
-            testID={`position-${position}`}
-            accessibilityRole={onPress ? 'button' : undefined}
-            accessibilityLabel={`Position ${position}, phase ${phase}${circuit ? `, ${directoryText(circuit)}` : ', empty'}`}
-            onPress={onPress}
-            disabled={!onPress}
-            style={({ pressed }) => [
-              styles.phoneRow,
-              circuit?.status === 'space' && styles.spaceRow,
-              circuit?.status === 'spare' && styles.spareRow,
-              continues && styles.continuationRow,
-              pressed && styles.pressed,
-            ]}
-          >
-            <Text variant="readingBold" style={styles.phonePosition}>
-              {position}
-            </Text>
-            <PhaseBadge phase={phase} />
-            {starts ? (
-              <>
-                <View style={styles.breaker}>
-                  <Text variant="reading">{breakerLabel(starts)}</Text>
-                </View>
-                <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} />
-              </>
-            ) : continues ? (
-              <Text variant="small" tone="soft" style={styles.flex} numberOfLines={1}>
-                ↳ pole {(position - continues.position) / 2 + 1} of {continues.poles} · breaker at {continues.position}
+          // a list of positions for a screen reader: each item holds its row's button
+          <View key={position} role="listitem">
+            <Pressable
+              testID={`position-${position}`}
+              accessibilityRole={onPress ? 'button' : undefined}
+              accessibilityLabel={`Position ${position}, phase ${phase}${circuit ? `, ${directoryText(circuit)}` : ', empty'}`}
+              onPress={onPress}
+              disabled={!onPress}
+              style={({ pressed }) => [
+                styles.phoneRow,
+                circuit?.status === 'space' && styles.spaceRow,
+                circuit?.status === 'spare' && styles.spareRow,
+                continues && styles.continuationRow,
+                pressed && styles.pressed,
+              ]}
+            >
+              <Text variant="readingBold" style={styles.phonePosition}>
+                {position}
               </Text>
-            ) : (
-              <Text variant="small" tone="faint" style={styles.flex}>
-                Not recorded{canEdit ? ' — tap to add' : ''}
-              </Text>
-            )}
-          </Pressable>
+              <PhaseBadge phase={phase} />
+              {starts ? (
+                <>
+                  <View style={styles.breaker}>
+                    <Text variant="reading">{breakerLabel(starts)}</Text>
+                  </View>
+                  <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} />
+                </>
+              ) : continues ? (
+                <Text variant="small" tone="soft" style={styles.flex} numberOfLines={1}>
+                  ↳ pole {(position - continues.position) / 2 + 1} of {continues.poles} · breaker at {continues.position}
+                </Text>
+              ) : (
+                <Text variant="small" tone="faint" style={styles.flex}>
+                  Not recorded{canEdit ? ' — tap to add' : ''}
+                </Text>
+              )}
+            </Pressable>
+          </View>
         );
       })}
     </View>
