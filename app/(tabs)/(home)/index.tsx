@@ -33,7 +33,10 @@ export default function Buildings() {
             size="section"
             key={b.id}
             accessibilityRole="button"
-            accessibilityLabel={`Building ${b.name}`}
+            // the name read out holds every word shown (WCAG 2.5.3 Label in Name)
+            accessibilityLabel={[`Building ${b.name}`, b.address, `${b.panelCount} panel${b.panelCount === 1 ? '' : 's'} · you are ${ROLE_LABEL[b.role]}`]
+              .filter(Boolean)
+              .join(', ')}
             onPress={() => router.push({ pathname: '/buildings/[buildingId]', params: { buildingId: b.id } })}
             style={styles.card}
           >
