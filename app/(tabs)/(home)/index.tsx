@@ -47,7 +47,9 @@ export default function Buildings() {
                 {b.panelCount} panel{b.panelCount === 1 ? '' : 's'} · you are {ROLE_LABEL[b.role]}
               </Text>
             </View>
-            <Text tone="faint" variant="heading">›</Text>
+            <Text tone="faint" variant="heading" aria-hidden>
+              ›
+            </Text>
           </PressableCard>
         ))}
       </Screen>
