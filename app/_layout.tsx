@@ -7,7 +7,8 @@ import { useEffect, useMemo, useState } from 'react';
 import { Platform } from 'react-native';
 import { SafeAreaProvider } from 'react-native-safe-area-context';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
-import { headerOptions } from '@/components/ui/header-options';
+import { useHeaderOptions } from '@/components/ui/header-options';
+import { ThemeProvider } from '@/components/ui/theme-provider';
 import { colours, fonts } from '@/components/ui/theme';
 import { AccountContext, useSession, type Account } from '@/hooks/use-session';
 import { getActiveUser, setActiveUser, setCacheFlush, wipeUserCache } from '@/lib/account';
@@ -71,10 +72,12 @@ export default function RootLayout() {
   if (!ready) return null;
   return (
     <AccountContext.Provider value={account}>
-      <SafeAreaProvider>
-        <StatusBar style="light" />
-        {userId ? <UserCache key={userId} userId={userId} /> : <SignedOutCache />}
-      </SafeAreaProvider>
+      <ThemeProvider>
+        <SafeAreaProvider>
+          <StatusBar style="light" />
+          {userId ? <UserCache key={userId} userId={userId} /> : <SignedOutCache />}
+        </SafeAreaProvider>
+      </ThemeProvider>
     </AccountContext.Provider>
   );
 }
@@ -210,6 +213,7 @@ function SignedOutCache() {
 
 function RootStack() {
   const session = useSession();
+  const header = useHeaderOptions(!!session.data);
   if (session.isPending) return <LoadingState what="Ampwright" />;
   if (session.isError && session.data === undefined) {
     return <ErrorState error={session.error} onRetry={() => session.refetch()} />;
@@ -217,7 +221,7 @@ function RootStack() {
   const signedIn = !!session.data;
   return (
     <Stack
-      screenOptions={{ ...headerOptions(signedIn), contentStyle: { backgroundColor: colours.paper } }}
+      screenOptions={{ ...header, contentStyle: { backgroundColor: colours.paper } }}
     >
       <Stack.Protected guard={signedIn}>
         {/* the title is what the back button of a screen above the tabs reads */}

@@ -1,23 +1,33 @@
 import { Tabs } from 'expo-router/js-tabs';
 import type { ColorValue } from 'react-native';
-import { headerOptions } from '@/components/ui/header-options';
+import { useHeaderOptions } from '@/components/ui/header-options';
 import { Text } from '@/components/ui/text';
 import { colours, fonts } from '@/components/ui/theme';
+import { useTheme } from '@/components/ui/theme-provider';
 
 const icon = (glyph: string) =>
   function TabIcon({ color }: { color: ColorValue }) {
-    return <Text style={{ color, fontSize: 20 }} accessibilityElementsHidden>{glyph}</Text>;
+    // the label says it: the glyph is hidden from screen readers (it was read twice)
+    return (
+      <Text style={{ color, fontSize: 20 }} accessibilityElementsHidden aria-hidden>
+        {glyph}
+      </Text>
+    );
   };
 
 export default function TabsLayout() {
+  const header = useHeaderOptions(true);
+  const { palette } = useTheme();
   return (
     <Tabs
       screenOptions={{
-        ...headerOptions(true),
-        tabBarActiveTintColor: colours.copper,
-        tabBarInactiveTintColor: colours.inkSoft,
+        ...header,
+        // plain values: the tab bar mixes these itself
+        tabBarActiveTintColor: palette.copper,
+        tabBarInactiveTintColor: palette.inkSoft,
         tabBarLabelStyle: { fontFamily: fonts.textBold, fontSize: 12 },
-        tabBarStyle: { backgroundColor: colours.card, minHeight: 56 },
+        tabBarStyle: { backgroundColor: colours.card, borderTopColor: colours.rule, minHeight: 56 },
+        sceneStyle: { backgroundColor: colours.paper },
       }}
     >
       {/* a stack of its own (app/(tabs)/(home)/_layout.tsx) with its own header */}

@@ -5,6 +5,7 @@ import { ReadOnlyField } from '@/components/ui/fields';
 import { SafetyNote } from '@/components/ui/safety-note';
 import { Screen } from '@/components/ui/screen';
 import { Text } from '@/components/ui/text';
+import { ThemeChoice } from '@/components/ui/theme-choice';
 import { useOutbox } from '@/hooks/use-outbox';
 import { useWaitingPhotos } from '@/hooks/use-photos';
 import { OrganisationSettingsCard } from '@/components/access/organisation-settings';
@@ -49,6 +50,9 @@ export default function Me() {
       {me.memberships.some((m) => can(m.role, 'people.manage')) && (
         <Button label="Users and access" tone="secondary" onPress={() => router.push('/users')} testID="users-and-access" />
       )}
+      <Card>
+        <ThemeChoice />
+      </Card>
       <Button label="Band library" tone="secondary" onPress={() => router.push('/bands')} testID="band-library" />
       <SafetyNote />
       <Button label="Sign out" tone="secondary" onPress={onSignOut} busy={signOut.isPending} testID="sign-out" />

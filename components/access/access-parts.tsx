@@ -27,6 +27,7 @@ export function BuildingChecklist({
             key={b.id}
             accessibilityRole="checkbox"
             accessibilityState={{ checked: on, disabled }}
+            aria-checked={on}
             accessibilityLabel={`${b.name}: ${on ? 'granted' : 'not granted'}`}
             disabled={disabled}
             onPress={() => onToggle(b.id, !on)}

@@ -22,6 +22,7 @@ import {
 import { fieldErrors } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { dateWords, isRealDate } from './deficiency-format';
+import { DateField } from '@/components/ui/date-field';
 import { ChoiceField, TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
 import { colours, radii, space } from '@/components/ui/theme';
@@ -225,6 +226,7 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
           </Text>
           <TextField
             label="Why it is deferred"
+            required
             value={deferReason}
             onChangeText={(t) => {
               setDeferReason(t);
@@ -234,17 +236,17 @@ export function DeficiencyActions(props: DeficiencyActionsProps) {
             error={errors.deferReason}
             testID="field-defer-reason"
           />
-          <TextField
+          <DateField
             label="Look at it again on"
+            required
             value={reviewOn}
             onChangeText={(t) => {
               setReviewOn(t);
               clearError('reviewOn');
             }}
-            placeholder="YYYY-MM-DD"
-            mono
+            min={todayISO()}
             error={errors.reviewOn}
-            hint="A date as YYYY-MM-DD, e.g. the next shutdown."
+            hint="For example the next planned shutdown."
             testID="field-review-on"
           />
           <Button

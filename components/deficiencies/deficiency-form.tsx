@@ -12,6 +12,7 @@ import { usePanel } from '@/hooks/use-register';
 import { Button } from '@/components/ui/button';
 import { breakerLabel, directoryText } from '@/components/register/circuit-format';
 import { dateWords, isRealDate } from './deficiency-format';
+import { DateField } from '@/components/ui/date-field';
 import { ChoiceField, Field, FormProblems, TextField } from '@/components/ui/fields';
 import { Text } from '@/components/ui/text';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -121,20 +122,18 @@ export function DeficiencyForm({ panels, initialPanelId, initialCircuitId, dueDa
         error={errors.priority}
         hint={draft.priority ? `${PRIORITY_LABELS[draft.priority]}: ${PRIORITY_HINTS[draft.priority]}; ${dueDays[draft.priority]} days by your organisation's settings.` : 'P1 now · P2 soon · P3 planned · P4 watch'}
       />
-      <TextField
+      <DateField
         label="Due by"
         value={draft.dueOn}
         onChangeText={(t) => {
           setDueTouched(true);
           set('dueOn')(t);
         }}
-        placeholder="YYYY-MM-DD"
-        mono
         error={errors.dueOn}
         hint={
           draft.dueOn && isRealDate(draft.dueOn)
             ? `${dateWords(draft.dueOn)}${dueTouched ? ' (set by you)' : ' (from the priority)'}`
-            : 'Follows the priority; type a date to set your own.'
+            : 'Follows the priority; choose a date to set your own.'
         }
         testID="field-due"
       />

@@ -43,7 +43,8 @@ export function RowLink({ onPress, label, children, testID }: { onPress: () => v
   return (
     <PressableCard
       accessibilityRole="link"
-      accessibilityLabel={label}
+      // named by the words it shows (WCAG 2.5.3); what it does is the hint
+      accessibilityHint={label}
       onPress={onPress}
       testID={testID}
       style={styles.rowLink}

@@ -170,7 +170,7 @@ export function FindingRow({ row, today, selected, onOpen }: { row: DeficiencyRo
   return (
     <PressableCard
       accessibilityRole="link"
-      accessibilityLabel={`${PRIORITY_LABELS[d.priority]}: ${d.title}. ${STATUS_LABELS[d.status]}, ${due.text}`}
+      // named by what it shows (priority, title, status, due), so the words heard are the words seen
       aria-current={selected ? true : undefined}
       onPress={onOpen}
       style={[styles.row, selected && styles.rowSelected]}

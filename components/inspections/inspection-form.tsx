@@ -12,6 +12,7 @@ import {
 } from '@/shared/records';
 import { fieldErrors, type Panel } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
+import { DateField } from '@/components/ui/date-field';
 import { chipStyles, ChoiceField, Field, FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { lightLoadWarning, needsLoad } from './inspection-format';
@@ -165,13 +166,7 @@ export function InspectionForm({ panels, initial, isNew, onSubmit, onCancel, loc
         locked={lockedPanelIds}
       />
       <FieldRow>
-        <TextField
-          label="Date"
-          {...text('performedOn')}
-          mono
-          placeholder="YYYY-MM-DD"
-          testID="field-performed-on"
-        />
+        <DateField label="Date" required {...text('performedOn')} testID="field-performed-on" />
         <TextField
           label={`Ambient (${unitSymbol(draft.temperatureUnit)})`}
           {...text('ambientC')}

@@ -32,7 +32,7 @@ export function FeederTree({ panels, onOpen }: { panels: Panel[]; onOpen: (panel
     <View key={node.panel.id}>
       <PressableCard
         accessibilityRole="button"
-        accessibilityLabel={`Panel ${node.panel.tag}`}
+        // named by what it shows (tag, location, system), so the words heard are the words seen
         testID={`panel-${node.panel.tag}`}
         onPress={() => onOpen(node.panel)}
         style={[styles.node, { marginLeft: depth * space.xl }]}

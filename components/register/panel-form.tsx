@@ -3,6 +3,7 @@ import { PANEL_KINDS, SYSTEM_INFO, SYSTEMS, type EquipmentCondition, type Insula
 import { panelLayout } from '@/shared/calc';
 import { fieldErrors, panelCreateBody, type Circuit, type Panel, type PanelPatchBody } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
+import { DateField } from '@/components/ui/date-field';
 import { ChoiceField, FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { changedFields, numberOrNull, textOf } from '@/components/ui/form-values';
 import { bindForm, useFormDraft } from '@/components/ui/use-form-draft';
@@ -105,7 +106,7 @@ export function PanelForm({ panel, circuits, onSubmit }: PanelFormProps) {
       />
       <FieldRow>
         <TextField label="Short-circuit rating (kA)" {...text('shortCircuitKA')} keyboardType="decimal-pad" mono />
-        <TextField label="Installed on" {...text('installedOn')} placeholder="YYYY-MM-DD" mono />
+        <DateField label="Installed on" {...text('installedOn')} testID="field-installed-on" />
       </FieldRow>
       <PanelCheckFields bind={bindForm(draft, set, errors)} system={draft.system} />
       <FieldRow>

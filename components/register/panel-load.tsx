@@ -28,7 +28,7 @@ export function PanelLoadSummary({ panel, circuits }: { panel: Panel; circuits: 
     <Pressable
       accessibilityRole="button"
       accessibilityState={{ expanded: open }}
-      accessibilityLabel="Panel loading, tap for details"
+      accessibilityHint="Shows the loading per phase"
       onPress={() => setOpen((v) => !v)}
       style={[cardStyles.row, styles.card]}
       testID="panel-load"

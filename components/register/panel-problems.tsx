@@ -27,7 +27,7 @@ export function PanelProblems({ problems, onOpen }: { problems: CircuitProblems[
         <Pressable
           key={circuit.id}
           accessibilityRole="link"
-          accessibilityLabel={`Position ${circuit.position}: ${warnings.map((w) => w.message).join(' ')}`}
+          // named by what it shows: the words heard are the words seen (WCAG 2.5.3)
           onPress={() => onOpen(circuit)}
           style={({ pressed }) => [styles.item, pressed && styles.pressed]}
         >
@@ -38,7 +38,7 @@ export function PanelProblems({ problems, onOpen }: { problems: CircuitProblems[
               <Text key={w.code} variant="small">• {w.message}</Text>
             ))}
           </View>
-          <Text tone="faint">›</Text>
+          <Text tone="faint" aria-hidden>›</Text>
         </Pressable>
       ))}
     </View>

@@ -117,47 +117,49 @@ function CircuitSummary({
 
 function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }: Laid) {
   return (
-    <View style={styles.phoneList} accessibilityRole="list" testID="schedule-phone">
+    <View style={styles.phoneList} role="list" aria-label="Positions" testID="schedule-phone">
       {positions.map(({ position, phase, starts, continues }) => {
         const circuit = starts ?? continues;
         const onPress = circuit ? () => onOpenCircuit(circuit) : canEdit ? () => onAddAt(position) : undefined;
         return (
-          <Pressable
-            key={position}
-            testID={`position-${position}`}
-            accessibilityRole={onPress ? 'button' : undefined}
-            accessibilityLabel={`Position ${position}, phase ${phase}${circuit ? `, ${directoryText(circuit)}` : ', empty'}`}
-            onPress={onPress}
-            disabled={!onPress}
-            style={({ pressed }) => [
-              styles.phoneRow,
-              circuit?.status === 'space' && styles.spaceRow,
-              circuit?.status === 'spare' && styles.spareRow,
-              continues && styles.continuationRow,
-              pressed && styles.pressed,
-            ]}
-          >
-            <Text variant="readingBold" style={styles.phonePosition}>
-              {position}
-            </Text>
-            <PhaseBadge phase={phase} />
-            {starts ? (
-              <>
-                <View style={styles.breaker}>
-                  <Text variant="reading">{breakerLabel(starts)}</Text>
-                </View>
-                <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} />
-              </>
-            ) : continues ? (
-              <Text variant="small" tone="soft" style={styles.flex}>
-                ↳ pole {(position - continues.position) / 2 + 1} of {continues.poles} · breaker at {continues.position}
+          // a list of positions for a screen reader: each item holds its row's button
+          <View key={position} role="listitem">
+            <Pressable
+              testID={`position-${position}`}
+              accessibilityRole={onPress ? 'button' : undefined}
+              accessibilityLabel={`Position ${position}, phase ${phase}${circuit ? `, ${directoryText(circuit)}` : ', empty'}`}
+              onPress={onPress}
+              disabled={!onPress}
+              style={({ pressed }) => [
+                styles.phoneRow,
+                circuit?.status === 'space' && styles.spaceRow,
+                circuit?.status === 'spare' && styles.spareRow,
+                continues && styles.continuationRow,
+                pressed && styles.pressed,
+              ]}
+            >
+              <Text variant="readingBold" style={styles.phonePosition}>
+                {position}
               </Text>
-            ) : (
-              <Text variant="small" tone="faint" style={styles.flex}>
-                Not recorded{canEdit ? ' — tap to add' : ''}
-              </Text>
-            )}
-          </Pressable>
+              <PhaseBadge phase={phase} />
+              {starts ? (
+                <>
+                  <View style={styles.breaker}>
+                    <Text variant="reading">{breakerLabel(starts)}</Text>
+                  </View>
+                  <CircuitSummary circuit={starts} warnings={warnings.get(starts.id)} />
+                </>
+              ) : continues ? (
+                <Text variant="small" tone="soft" style={styles.flex}>
+                  ↳ pole {(position - continues.position) / 2 + 1} of {continues.poles} · breaker at {continues.position}
+                </Text>
+              ) : (
+                <Text variant="small" tone="faint" style={styles.flex}>
+                  Not recorded{canEdit ? ' — tap to add' : ''}
+                </Text>
+              )}
+            </Pressable>
+          </View>
         );
       })}
     </View>
@@ -274,9 +276,9 @@ const styles = StyleSheet.create({
     borderBottomWidth: StyleSheet.hairlineWidth,
     borderBottomColor: colours.rule,
   },
-  continuationRow: { backgroundColor: '#FBFAF7' },
-  spareRow: { backgroundColor: '#FAF6EF' },
-  spaceRow: { backgroundColor: '#F1EFEA' },
+  continuationRow: { backgroundColor: colours.rowContinuation },
+  spareRow: { backgroundColor: colours.rowSpare },
+  spaceRow: { backgroundColor: colours.rowSpace },
   phonePosition: { width: 28, textAlign: 'right' },
   phase: { width: 28, height: 28, borderRadius: 14, alignItems: 'center', justifyContent: 'center' },
   breaker: {
@@ -315,7 +317,7 @@ const styles = StyleSheet.create({
     paddingHorizontal: space.sm,
     paddingVertical: space.xs,
   },
-  emptyCell: { backgroundColor: '#FCFBF9' },
+  emptyCell: { backgroundColor: colours.cellEmpty },
   widePositions: { alignSelf: 'stretch', justifyContent: 'space-around', width: 30 },
   widePosition: { alignItems: 'center' },
   tie: { width: 3, alignSelf: 'stretch', marginVertical: 10, backgroundColor: colours.copper, borderRadius: 2 },

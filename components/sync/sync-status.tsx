@@ -5,7 +5,7 @@ import { useWaitingPhotos } from '@/hooks/use-photos';
 import { useSyncReview } from '@/hooks/use-register';
 import { describePullProgress, usePullProgress } from '@/lib/pull-progress';
 import { Text } from '@/components/ui/text';
-import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
+import { colours, MIN_TOUCH, space } from '@/components/ui/theme';
 
 /**
  * The compact status in every header: offline / on this device (N) / synced / needs review (N),
@@ -38,7 +38,7 @@ export function SyncStatus() {
       onPress={() => router.push('/sync')}
       style={[styles.pill, styles[tone]]}
     >
-      <Text variant="label" tone="paper" numberOfLines={1}>
+      <Text variant="label" tone={tone === 'ok' ? 'bar' : 'paper'} numberOfLines={1}>
         {label}
       </Text>
     </Pressable>
@@ -47,13 +47,14 @@ export function SyncStatus() {
 
 const styles = StyleSheet.create({
   pill: {
-    minHeight: MIN_TOUCH - 12,
+    minHeight: MIN_TOUCH,
+    minWidth: MIN_TOUCH,
     justifyContent: 'center',
     paddingHorizontal: space.sm,
     marginRight: space.md,
-    borderRadius: radii.lg,
+    borderRadius: MIN_TOUCH / 2,
     borderWidth: 1,
-    borderColor: colours.paper,
+    borderColor: colours.onBar,
   },
   ok: { backgroundColor: 'transparent' },
   wait: { backgroundColor: colours.copper, borderColor: colours.copper },

@@ -9,6 +9,7 @@ import { tripCreateBody, type TripCreateBody } from '@/shared/records';
 import { fieldErrors, type Circuit } from '@/shared/schemas';
 import { Button } from '@/components/ui/button';
 import { isRealDate } from '@/components/deficiencies/deficiency-format';
+import { DateField } from '@/components/ui/date-field';
 import { FieldRow, FormProblems, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
 import { useFormDraft } from '@/components/ui/use-form-draft';
@@ -72,7 +73,7 @@ export function TripForm({ circuit, onSubmit }: { circuit: Circuit; onSubmit: (b
   return (
     <View style={styles.form}>
       <FieldRow>
-        <TextField label="Date" {...text('date')} placeholder="YYYY-MM-DD" mono testID="field-trip-date" />
+        <DateField label="Date" required {...text('date')} testID="field-trip-date" />
         <TextField label="Time" {...text('time')} placeholder="HH:MM" mono testID="field-trip-time" />
       </FieldRow>
       <TextField

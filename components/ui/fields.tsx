@@ -8,10 +8,25 @@ import { colours, fonts, MIN_TOUCH, radii, space } from './theme';
  * TextField and ChoiceField are built on it; a form's own control (a picker, a checklist) sits in
  * it so every field reads the same.
  */
-export function Field({ label, error, hint, children }: { label: string; error?: string; hint?: string; children: React.ReactNode }) {
+export function Field({
+  label,
+  error,
+  hint,
+  required,
+  children,
+}: {
+  label: string;
+  error?: string;
+  hint?: string;
+  /** said in the label before anything is sent, in words (not a colour or a lone asterisk) */
+  required?: boolean;
+  children: React.ReactNode;
+}) {
   return (
     <View style={styles.field}>
-      <Text variant="label" tone="soft">{label}</Text>
+      <Text variant="label" tone="soft">
+        {fieldLabel(label, required)}
+      </Text>
       {children}
       {error ? (
         <Text variant="small" tone="danger" accessibilityRole="alert">
@@ -23,6 +38,9 @@ export function Field({ label, error, hint, children }: { label: string; error?:
     </View>
   );
 }
+
+/** "Look at it again on (required)" */
+export const fieldLabel = (label: string, required?: boolean) => (required ? `${label} (required)` : label);
 
 /**
  * Fields side by side, sharing the width (two short numbers on one line of a phone). `wrap`: the
@@ -58,14 +76,16 @@ export interface TextFieldProps extends Omit<TextInputProps, 'style'> {
   error?: string;
   hint?: string;
   mono?: boolean;
+  required?: boolean;
 }
 
-export function TextField({ label, error, hint, mono, multiline, ...input }: TextFieldProps) {
+export function TextField({ label, error, hint, mono, multiline, required, ...input }: TextFieldProps) {
   return (
-    <Field label={label} error={error} hint={hint}>
+    <Field label={label} error={error} hint={hint} required={required}>
       <TextInput
         accessibilityLabel={label}
         aria-invalid={!!error}
+        aria-required={required}
         placeholderTextColor={colours.inkFaint}
         multiline={multiline}
         style={[styles.input, mono && styles.mono, multiline && styles.multiline, !!error && styles.inputError]}
@@ -108,6 +128,9 @@ export function ChoiceField<T extends string | number | boolean | null>({
               key={String(choice.value)}
               accessibilityRole="radio"
               accessibilityState={{ checked: selected, disabled }}
+              // React Native Web reads aria-* (not accessibilityState): a screen reader hears "checked"
+              aria-checked={selected}
+              aria-disabled={disabled}
               accessibilityLabel={`${label}: ${choice.label}`}
               disabled={disabled}
               onPress={() => onChange(choice.value)}

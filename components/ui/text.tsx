@@ -3,7 +3,8 @@ import { colours, type as typeScale, type TextVariant } from './theme';
 
 export interface ThemedTextProps extends TextProps {
   variant?: TextVariant;
-  tone?: 'ink' | 'soft' | 'faint' | 'copper' | 'danger' | 'warn' | 'paper';
+  /** `paper`: on a strong ground (button, selected chip); `bar`: on the header bar */
+  tone?: 'ink' | 'soft' | 'faint' | 'copper' | 'danger' | 'warn' | 'paper' | 'bar';
 }
 
 const toneColour = {
@@ -14,6 +15,7 @@ const toneColour = {
   danger: colours.danger,
   warn: colours.warn,
   paper: colours.paper,
+  bar: colours.onBar,
 } as const;
 
 export function Text({ variant = 'body', tone = 'ink', style, ...rest }: ThemedTextProps) {

@@ -1,28 +1,44 @@
 /** The one theme module: colours, spacing, radii, type scale, font families. */
-export const colours = {
-  ink: '#1D2733',
-  inkSoft: '#4A5563',
-  inkFaint: '#7B8593',
-  paper: '#F7F5F0',
-  card: '#FFFFFF',
-  rule: '#DAD5CB',
-  ruleStrong: '#B9B2A5',
-  copper: '#B35C2E',
-  copperSoft: '#F3E3D8',
-  danger: '#B8322A',
-  dangerSoft: '#F7E0DE',
-  warn: '#C77B1A',
-  warnSoft: '#FBEBD3',
-  ok: '#5E7D46',
-  p1: '#B8322A',
-  p2: '#C77B1A',
-  p3: '#2F6F95',
-  p4: '#5E7D46',
-  /** the bus phases carry their letter everywhere; the tint only helps the eye follow a row */
-  phaseA: '#EDE7DC',
-  phaseB: '#E2E8EC',
-  phaseC: '#E8E4EE',
-} as const;
+import { Appearance, Platform } from 'react-native';
+import { PALETTES, type ColourScheme, type ColourToken } from './palette';
+import { readThemePreferenceNow, type ThemePreference } from './theme-preference';
+
+export { PALETTES, type ColourScheme, type ColourToken } from './palette';
+
+const TOKENS = Object.keys(PALETTES.light) as ColourToken[];
+const cssName = (token: ColourToken) => `--aw-${token}`;
+
+/** The scheme a preference means under the system's own setting. */
+export function resolveScheme(preference: ThemePreference, system: string | null | undefined): ColourScheme {
+  if (preference !== 'system') return preference;
+  return system === 'dark' ? 'dark' : 'light';
+}
+
+/**
+ * On the web every colour is a CSS variable, so one switch on <html> recolours every style sheet
+ * at once (React Native Web passes `var(…)` colours through as they are) and no screen needs a
+ * hook. A native build takes the system's scheme when the app starts.
+ */
+export const colours: Record<ColourToken, string> =
+  Platform.OS === 'web'
+    ? (Object.fromEntries(TOKENS.map((t) => [t, `var(${cssName(t)})`])) as Record<ColourToken, string>)
+    : PALETTES[resolveScheme(readThemePreferenceNow() ?? 'system', Appearance.getColorScheme())];
+
+/** Sets the page's colours (web). `color-scheme` makes the browser's own controls follow too. */
+export function applyScheme(scheme: ColourScheme) {
+  if (Platform.OS !== 'web' || typeof document === 'undefined') return;
+  const root = document.documentElement;
+  for (const token of TOKENS) root.style.setProperty(cssName(token), PALETTES[scheme][token]);
+  root.style.setProperty('color-scheme', scheme);
+  root.style.setProperty('background-color', PALETTES[scheme].paper);
+  root.dataset.theme = scheme;
+}
+
+// before the first paint: the stored choice, else the system's (no flash of the other theme)
+if (Platform.OS === 'web' && typeof window !== 'undefined' && typeof window.matchMedia === 'function') {
+  const system = window.matchMedia('(prefers-color-scheme: dark)').matches ? 'dark' : 'light';
+  applyScheme(resolveScheme(readThemePreferenceNow() ?? 'system', system));
+}
 
 export const space = { xs: 4, sm: 8, md: 12, lg: 16, xl: 24, xxl: 32 } as const;
 export const radii = { sm: 4, md: 8, lg: 12 } as const;

@@ -144,13 +144,22 @@ test.describe.serial('deficiencies', () => {
     await findingRow(page, DEFER_TITLE).click();
     await expect(page.getByTestId('action-repair')).toHaveCount(0);
     await page.getByTestId('action-defer').click();
-    await page.getByTestId('confirm-defer').click();
     const form = page.getByTestId('form-defer');
-    await expect(form).toContainText('✕ say why the repair is deferred');
-    await expect(form).toContainText('✕ choose when to look at it again');
-    await page.getByTestId('field-review-on').fill('next spring');
+    // before anything is sent the form says both are needed, in words (not colour alone)
+    await expect(form).toContainText('Why it is deferred (required)');
+    await expect(form).toContainText('Look at it again on (required)');
+    // the review date is the browser's own date picker (the phone's calendar), not typed text
+    const reviewOn = page.getByTestId('field-review-on');
+    await expect(reviewOn).toHaveAttribute('type', 'date');
+    await expect(reviewOn).toHaveAttribute('aria-required', 'true');
     await page.getByTestId('confirm-defer').click();
-    await expect(form).toContainText('✕ a date as YYYY-MM-DD');
+    await expect(form).toContainText('✕ say why the repair is deferred');
+    // the error sits with its field, and the field says it is in error
+    await expect(reviewOn.locator('..')).toContainText('✕ choose when to look at it again');
+    await expect(reviewOn).toHaveAttribute('aria-invalid', 'true');
+    await reviewOn.fill('2001-01-01');
+    await page.getByTestId('confirm-defer').click();
+    await expect(reviewOn.locator('..')).toContainText('✕ choose a date from today on');
 
     await page.getByTestId('field-defer-reason').fill('Panel LB is replaced in the spring remodel');
     await page.getByTestId('field-review-on').fill('2099-04-01');

@@ -1,5 +1,5 @@
 import { Stack } from 'expo-router';
-import { headerOptions } from '@/components/ui/header-options';
+import { useHeaderOptions } from '@/components/ui/header-options';
 import { colours } from '@/components/ui/theme';
 
 /**
@@ -13,9 +13,10 @@ import { colours } from '@/components/ui/theme';
 export const unstable_settings = { initialRouteName: 'index' };
 
 export default function BuildingsStack() {
+  const header = useHeaderOptions(true);
   return (
     <Stack
-      screenOptions={{ ...headerOptions(true), contentStyle: { backgroundColor: colours.paper } }}
+      screenOptions={{ ...header, contentStyle: { backgroundColor: colours.paper } }}
     >
       <Stack.Screen name="index" options={{ title: 'Buildings' }} />
       <Stack.Screen name="buildings/[buildingId]" options={{ title: 'Building' }} />

@@ -33,18 +33,24 @@ export default function Buildings() {
             size="section"
             key={b.id}
             accessibilityRole="button"
-            accessibilityLabel={`Building ${b.name}`}
+            // named by what it shows, so the name read out is the words on the card (WCAG 2.5.3
+            // Label in Name); the kicker makes it "Building <name> …"
             onPress={() => router.push({ pathname: '/buildings/[buildingId]', params: { buildingId: b.id } })}
             style={styles.card}
           >
             <View style={styles.text}>
+              <Text variant="small" tone="faint">
+                Building
+              </Text>
               <Text variant="heading">{b.name}</Text>
               {b.address ? <Text tone="soft">{b.address}</Text> : null}
               <Text variant="small" tone="faint">
                 {b.panelCount} panel{b.panelCount === 1 ? '' : 's'} · you are {ROLE_LABEL[b.role]}
               </Text>
             </View>
-            <Text tone="faint" variant="heading">›</Text>
+            <Text tone="faint" variant="heading" aria-hidden>
+              ›
+            </Text>
           </PressableCard>
         ))}
       </Screen>

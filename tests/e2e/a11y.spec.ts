@@ -1,0 +1,109 @@
+/**
+ * Screen readers and thumbs on the main screens at 390×844 (a phone):
+ *  - axe-core (WCAG 2.0/2.1 A and AA rules, and axe's best-practice rules) finds no critical and no
+ *    serious violation. No rule is switched off: colour contrast in particular stays on.
+ *  - every button, link, radio, checkbox, tab and date field is at least 44×44 px (WCAG 2.1
+ *    §2.5.5 Target Size, the size DESIGN.md asks for a gloved thumb).
+ * Both in the light theme and the dark one (the browser asks for dark: prefers-color-scheme).
+ * The counts per screen land in tests/artifacts/a11y-<scheme>.txt.
+ */
+import { writeFileSync } from 'node:fs';
+import AxeBuilder from '@axe-core/playwright';
+import { expect, test, type Page } from '@playwright/test';
+import { query } from './db';
+import { ARTIFACTS, DEMO_PASSWORD } from './helpers';
+
+interface Screen {
+  name: string;
+  path: string;
+  /** something on the screen that says it has drawn its content */
+  ready: (page: Page) => ReturnType<Page['getByTestId']>;
+}
+
+async function screens(): Promise<Screen[]> {
+  const [ids] = await query<{ building: string; panel: string; circuit: string; inspection: string; deficiency: string }>(
+    `SELECT b.id AS building, p.id AS panel,
+            (SELECT c.id FROM circuit c WHERE c.panel_id = p.id AND c.position = 28 AND c.deleted_at IS NULL) AS circuit,
+            (SELECT i.id FROM inspection i WHERE i.building_id = b.id AND i.signed_at IS NULL AND i.deleted_at IS NULL ORDER BY i.id LIMIT 1) AS inspection,
+            (SELECT d.id FROM deficiency d WHERE d.building_id = b.id AND d.deleted_at IS NULL ORDER BY d.id LIMIT 1) AS deficiency
+       FROM building b JOIN panel p ON p.building_id = b.id AND p.tag = 'LA' AND p.deleted_at IS NULL
+      WHERE b.name = 'Brackenfold Family Clinic'`,
+  );
+  return [
+    { name: 'Buildings', path: '/', ready: (p) => p.getByRole('button', { name: 'Building Brackenfold Family Clinic' }) },
+    { name: 'a building', path: `/buildings/${ids.building}`, ready: (p) => p.getByTestId('panel-LA') },
+    { name: 'the panel schedule', path: `/panels/${ids.panel}`, ready: (p) => p.getByTestId('position-1') },
+    { name: 'a circuit', path: `/panels/${ids.panel}/circuits/${ids.circuit}`, ready: (p) => p.getByRole('heading', { name: 'LA · 28' }) },
+    {
+      name: 'a reading form',
+      path: `/inspections/${ids.inspection}/reading?kind=torque&panelId=${ids.panel}`,
+      ready: (p) => p.getByTestId('save-reading'),
+    },
+    { name: 'Findings', path: '/findings', ready: (p) => p.getByTestId('priority-counts') },
+    { name: 'a deficiency', path: `/deficiencies/${ids.deficiency}`, ready: (p) => p.getByTestId('deficiency-detail') },
+    { name: 'Sync', path: '/sync', ready: (p) => p.getByTestId('sync-now') },
+    { name: 'Me', path: '/me', ready: (p) => p.getByTestId('sign-out') },
+  ];
+}
+
+/** Critical and serious axe findings on the page as it stands, one line per rule and element. */
+async function axeProblems(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).analyze();
+  return result.violations
+    .filter((v) => v.impact === 'critical' || v.impact === 'serious')
+    .flatMap((v) => v.nodes.map((n) => `${v.impact} ${v.id}: ${n.target.join(' ')} — ${n.failureSummary?.split('\n')[1]?.trim() ?? v.help}`));
+}
+
+/** Controls a thumb must hit that are smaller than 44×44 px (visible ones only). */
+async function smallTargets(page: Page): Promise<string[]> {
+  return page.evaluate((min) => {
+    const selector = 'a[href], button, [role="button"], [role="link"], [role="radio"], [role="checkbox"], [role="tab"], input[type="date"]';
+    const small: string[] = [];
+    for (const el of Array.from(document.querySelectorAll<HTMLElement>(selector))) {
+      const box = el.getBoundingClientRect();
+      const style = getComputedStyle(el);
+      if (box.width === 0 || box.height === 0 || style.visibility === 'hidden') continue;
+      // a control inside a hidden screen of the stack is not there for the user
+      if (el.closest('[aria-hidden="true"]')) continue;
+      if (box.width < min - 0.5 || box.height < min - 0.5) {
+        const name = el.getAttribute('aria-label') ?? el.textContent?.trim().slice(0, 40) ?? el.tagName;
+        small.push(`${name}: ${Math.round(box.width)}×${Math.round(box.height)}`);
+      }
+    }
+    return small;
+  }, 44);
+}
+
+for (const scheme of ['light', 'dark'] as const) {
+  test(`main screens in the ${scheme} theme: no critical or serious axe finding, every target ≥ 44 px`, async ({ browser }) => {
+    // ten screens, each read whole by axe: about 45 s on a quiet machine, far longer on a busy one
+    test.setTimeout(600_000);
+    const context = await browser.newContext({ colorScheme: scheme });
+    const page = await context.newPage();
+    const report: string[] = [];
+    const problems: string[] = [];
+    const record = (screen: string, axe: string[], small: string[]) => {
+      report.push(`${screen}: ${axe.length} critical/serious axe finding(s), ${small.length} target(s) under 44 px`);
+      problems.push(...axe.map((p) => `${screen} · ${p}`), ...small.map((s) => `${screen} · small target ${s}`));
+    };
+
+    await page.goto('/');
+    await expect(page.getByTestId('sign-in-submit')).toBeVisible();
+    record('sign-in', await axeProblems(page), await smallTargets(page));
+    // the electrician edits circuits and records readings: the screens with the most controls
+    await page.getByTestId('sign-in-email').fill('electrician@ampwright.test');
+    await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
+    await page.getByTestId('sign-in-submit').click();
+    await expect(page.getByText('Brackenfold Family Clinic')).toBeVisible();
+
+    for (const screen of await screens()) {
+      await page.goto(screen.path);
+      await expect(screen.ready(page).first()).toBeVisible({ timeout: 20_000 });
+      record(screen.name, await axeProblems(page), await smallTargets(page));
+      await page.screenshot({ path: `${ARTIFACTS}/a11y-${scheme}-${screen.name.replace(/\W+/g, '-')}.png`, fullPage: true });
+    }
+    writeFileSync(`${ARTIFACTS}/a11y-${scheme}.txt`, [...report, '', ...problems].join('\n') + '\n');
+    await context.close();
+    expect(problems, report.join('\n')).toEqual([]);
+  });
+}
