@@ -38,7 +38,7 @@ export default function RootLayout() {
   const [userId, setUserId] = useState<string | null | undefined>(undefined);
   useEffect(() => {
     installOnlineDetection();
-    void boot.then((id) => {
+    Promise.all([loadDevice(), getActiveUser()]).then(([, id]) => {
       // lets a support person (and the browser tests) tell devices apart
       if (typeof document !== 'undefined') document.documentElement.dataset.deviceId = deviceId();
       setUserId(id);
@@ -113,55 +113,23 @@ function UserCache({ userId }: { userId: string }) {
   return <OwnedUserCache userId={userId} />;
 }
 
-interface UserCacheParts {
-  client: QueryClient;
-  copy: DeviceCopy;
-}
-
-function makeUserCache(userId: string): UserCacheParts {
-  const queryClient = makeQueryClient();
-  const deviceCopy = makeDeviceCopy({
-    userId,
-    queryClient,
-    buster: String(SCHEMA_VERSION),
-    dehydrateOptions,
-    rebase: (replica) => rebaseOnOutbox(queryClient, replica, userId),
-    path: typeof window === 'undefined' || !window.location ? undefined : window.location.pathname,
-  });
-  // before the restore: restored mutations find their function and scope in these defaults,
-  // and the first pull waits until every stored panel is back in memory
-  configureSync(queryClient, userId, deviceCopy.loaded);
-  return { client: queryClient, copy: deviceCopy };
-}
-
-/** The cache the boot made for the last user, taken by the first mount for that user. */
-let early: { userId: string; parts: UserCacheParts } | null = null;
-
-function takeUserCache(userId: string): UserCacheParts {
-  const made = early?.userId === userId ? early.parts : makeUserCache(userId);
-  early = null;
-  return made;
-}
-
-/**
- * Storage is read as the bundle runs, not after React's first renders: the device's identity and
- * the last user, then that user's outbox lock and, once it is held, their saved copy. Each of
- * these used to wait for the effect of the render before, so an offline reload passed four such
- * hops before its copy was even read. Read only under the lock: a tab still waiting for another
- * one to close would otherwise hold a copy that tab goes on changing.
- */
-const boot: Promise<string | null> = Promise.all([loadDevice(), getActiveUser()]).then(([, id]) => {
-  if (id) {
-    const parts = makeUserCache(id);
-    early = { userId: id, parts };
-    waitForOutboxLock(id, () => parts.copy.prefetch());
-  }
-  return id;
-});
-
 /** One signed-in user's persisted cache and outbox. */
 function OwnedUserCache({ userId }: { userId: string }) {
-  const [{ client, copy }] = useState(() => takeUserCache(userId));
+  const [{ client, copy }] = useState(() => {
+    const queryClient = makeQueryClient();
+    const deviceCopy = makeDeviceCopy({
+      userId,
+      queryClient,
+      buster: String(SCHEMA_VERSION),
+      dehydrateOptions,
+      rebase: (replica) => rebaseOnOutbox(queryClient, replica, userId),
+      path: typeof window === 'undefined' || !window.location ? undefined : window.location.pathname,
+    });
+    // before the restore: restored mutations find their function and scope in these defaults,
+    // and the first pull waits until every stored panel is back in memory
+    configureSync(queryClient, userId, deviceCopy.loaded);
+    return { client: queryClient, copy: deviceCopy };
+  });
   useImmediateSave(copy);
   return (
     <PersistQueryClientProvider

@@ -58,11 +58,6 @@ export interface DeviceCopy {
   loadRest(): Promise<void>;
   /** resolves once every stored panel is in memory; a pull waits for it */
   loaded: Promise<void>;
-  /**
-   * Starts reading the saved copy now, before the provider asks for it: the boot calls this as
-   * soon as it knows the user (app/_layout.tsx). The provider's first restore takes this read.
-   */
-  prefetch(): void;
 }
 
 /** What was last written, by object identity: the rows are immutable, a new object is a change. */
@@ -337,27 +332,17 @@ export function makeDeviceCopy(options: DeviceCopyOptions): DeviceCopy {
     if (event.action.type === 'success' && !event.action.manual) void flush();
   });
 
-  let early: Promise<PersistedClient | undefined> | null = null;
-  const prefetch = () => {
-    early ??= restoreClient();
-  };
   const persister: Persister = {
     // the provider calls this on every change of the cache: write a moment later, coalesced
     persistClient: async () => flushSoon(),
-    // the early read serves the first restore only: a later one (the provider mounted again) must
-    // not lay an old snapshot, and its queued changes, on the live cache a second time
-    restoreClient: () => {
-      const read = early ?? restoreClient();
-      early = null;
-      return read;
-    },
+    restoreClient,
     // a changed schema version: this device's data is of another shape and is pulled again
     removeClient: async () => {
       const stored = await kv.keysWithPrefix(keys.prefix).catch(() => []);
       await kv.writeMany([], [...stored, cacheKey(userId)]);
     },
   };
-  return { persister, flush, loadRest, loaded, prefetch };
+  return { persister, flush, loadRest, loaded };
 }
 
 /** Did any part of a building's entry change (by identity: rows are replaced, never edited)? */
