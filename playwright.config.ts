@@ -3,6 +3,9 @@ import { defineConfig } from '@playwright/test';
 /** Browser tests drive Debian's Chromium (never a downloaded browser) against the served web build. */
 export default defineConfig({
   testDir: 'tests/e2e',
+  // the screenshots of every main screen (about 6 minutes) are taken on request, to keep npm test
+  // under 10 minutes: `npm run test:screens`
+  testIgnore: process.env.AMPWRIGHT_SCREENS === '1' ? [] : ['**/screens.spec.ts'],
   outputDir: 'test-results',
   // ceilings, not waits: a check passes the moment it holds. They are set for a loaded two-core
   // machine (the suite run three times beside other builds and suites, with a load of 20–34),
