@@ -1,5 +1,5 @@
-import { Tabs } from 'expo-router/js-tabs';
-import type { ColorValue } from 'react-native';
+import { BottomTabBar, Tabs } from 'expo-router/js-tabs';
+import { View, type ColorValue } from 'react-native';
 import { useHeaderOptions } from '@/components/ui/header-options';
 import { Text } from '@/components/ui/text';
 import { colours, fonts } from '@/components/ui/theme';
@@ -20,6 +20,12 @@ export default function TabsLayout() {
   const { palette } = useTheme();
   return (
     <Tabs
+      // the sections as a navigation landmark for a screen reader
+      tabBar={(props) => (
+        <View role="navigation" aria-label="Sections">
+          <BottomTabBar {...props} />
+        </View>
+      )}
       screenOptions={{
         ...header,
         // plain values: the tab bar mixes these itself

@@ -4,8 +4,9 @@ import { colours, space } from './theme';
 
 /** Page body: paper background, comfortable padding, a readable column on wide screens. */
 export function Screen({ children, scroll = true, wide = false, style }: ViewProps & { scroll?: boolean; wide?: boolean }) {
+  // the page's main landmark for a screen reader (the header and the tab bar are outside it)
   const inner = (
-    <View style={[styles.column, wide && styles.wideColumn, style]}>
+    <View role="main" style={[styles.column, wide && styles.wideColumn, style]}>
       <StorageProblem />
       {children}
     </View>

@@ -4,6 +4,7 @@
  *    serious violation. No rule is switched off: colour contrast in particular stays on.
  *  - every button, link, radio, checkbox, tab and date field is at least 44×44 px (WCAG 2.1
  *    §2.5.5 Target Size, the size DESIGN.md asks for a gloved thumb).
+ *  - every screen has a main landmark, and the tab bar is a navigation landmark ("Sections").
  * Both in the light theme and the dark one (the browser asks for dark: prefers-color-scheme).
  * The counts per screen land in tests/artifacts/a11y-<scheme>.txt.
  */
@@ -95,11 +96,14 @@ for (const scheme of ['light', 'dark'] as const) {
     await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
     await page.getByTestId('sign-in-submit').click();
     await expect(page.getByText('Brackenfold Family Clinic')).toBeVisible();
+    await expect(page.getByRole('navigation', { name: 'Sections' })).toBeVisible();
 
     for (const screen of await screens()) {
       await page.goto(screen.path);
       await expect(screen.ready(page).first()).toBeVisible({ timeout: 20_000 });
       record(screen.name, await axeProblems(page), await smallTargets(page));
+      // landmarks: the screen's body is the main one; on a phone the tab bar (when shown) is the navigation
+      if ((await page.getByRole('main').filter({ visible: true }).count()) === 0) problems.push(`${screen.name} · no main landmark`);
       await page.screenshot({ path: `${ARTIFACTS}/a11y-${scheme}-${screen.name.replace(/\W+/g, '-')}.png`, fullPage: true });
     }
     writeFileSync(`${ARTIFACTS}/a11y-${scheme}.txt`, [...report, '', ...problems].join('\n') + '\n');
