@@ -17,6 +17,8 @@ export async function queryPrepared<Row extends pg.QueryResultRow>(
   const driver = em.connection.driver;
   const pool: unknown = driver instanceof PostgresDriver ? driver.master : undefined;
   if (em.queryRunner || !(pool instanceof pg.Pool)) return em.query(text, values);
+  // through TypeORM's query log like every other statement (it logs only when asked to)
+  em.connection.logger.logQuery(text, values);
   const result = await pool.query<Row>({ name, text, values });
   return result.rows;
 }
