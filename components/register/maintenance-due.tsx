@@ -61,29 +61,32 @@ function DueRowView({ row, showBuilding }: { row: DueRow; showBuilding: boolean 
     row.state === 'never' && row.lastInspection
       ? ` · last inspection ${INSPECTION_KIND_LABELS[row.lastInspection.kind].toLowerCase()} ${row.lastInspection.performedOn}`
       : '';
+  // the row opens its panel; where its figure comes from is a control of its own beside it, not
+  // inside it (a button holding a button is one control to a screen reader)
   return (
-    <PressableCard
-      size="compact"
-      accessibilityRole="button"
-      accessibilityLabel={`${row.tag} ${TASK_LABELS[row.task]}: ${dueWords(row)}`}
-      onPress={() => router.push({ pathname: '/panels/[panelId]', params: { panelId: row.panelId } })}
-      style={[styles.row, (row.state === 'overdue' || row.state === 'never') && styles.urgent]}
-      testID={`due-${row.tag}-${row.task}`}
-    >
-      <View style={styles.rowHead}>
-        <View style={styles.tag}>
-          <Text variant="readingBold" tone="paper">{row.tag}</Text>
+    <View testID={`due-${row.tag}-${row.task}`}>
+      <PressableCard
+        size="compact"
+        accessibilityRole="button"
+        onPress={() => router.push({ pathname: '/panels/[panelId]', params: { panelId: row.panelId } })}
+        style={[styles.row, (row.state === 'overdue' || row.state === 'never') && styles.urgent]}
+        testID={`due-${row.tag}-${row.task}-open`}
+      >
+        <View style={styles.rowHead}>
+          <View style={styles.tag}>
+            <Text variant="readingBold" tone="paper">{row.tag}</Text>
+          </View>
+          <Text variant="strong" style={styles.task}>{TASK_LABELS[row.task]}</Text>
+          <Text variant="label" tone={state.tone} testID="due-state">{state.word}</Text>
         </View>
-        <Text variant="strong" style={styles.task}>{TASK_LABELS[row.task]}</Text>
-        <Text variant="label" tone={state.tone} testID="due-state">{state.word}</Text>
-      </View>
-      <Text variant="small" tone={state.tone === 'soft' ? 'ink' : state.tone} testID="due-words">
-        {row.dueOn ? `${dueWords(row)} · due ${row.dueOn}` : dueWords(row)}
-        {row.lastDoneOn ? ` · last ${row.lastDoneOn}` : lastOther}
-        {showBuilding ? ` · ${row.buildingName}` : ''}
-      </Text>
+        <Text variant="small" tone={state.tone === 'soft' ? 'ink' : state.tone} testID="due-words">
+          {row.dueOn ? `${dueWords(row)} · due ${row.dueOn}` : dueWords(row)}
+          {row.lastDoneOn ? ` · last ${row.lastDoneOn}` : lastOther}
+          {showBuilding ? ` · ${row.buildingName}` : ''}
+        </Text>
+      </PressableCard>
       <DueSource row={row} />
-    </PressableCard>
+    </View>
   );
 }
 

@@ -127,7 +127,8 @@ function PhoneSchedule({ positions, warnings, canEdit, onOpenCircuit, onAddAt }:
             <Pressable
               testID={`position-${position}`}
               accessibilityRole={onPress ? 'button' : undefined}
-              accessibilityLabel={`Position ${position}, phase ${phase}${circuit ? `, ${directoryText(circuit)}` : ', empty'}`}
+              // named by what it shows (position, phase, breaker, description, warnings): a label of
+              // its own left out the words the row shows (WCAG 2.5.3 Label in Name)
               onPress={onPress}
               disabled={!onPress}
               style={({ pressed }) => [

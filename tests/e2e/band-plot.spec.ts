@@ -57,7 +57,7 @@ test('°F on the Me tab: the hot lug’s 22 °C rise reads 39.6 °F, and its rec
   await page.getByRole('tab', { name: /Buildings/ }).click();
   await openPanel(page, 'Brackenfold Family Clinic', 'LA');
   await page.getByTestId('position-28').click();
-  const record = page.getByTestId('record-thermal');
+  const record = page.getByTestId('circuit-record');
   // 58 °C against 36 °C: ΔT 22 °C = 39.6 °F (× 9/5); as a temperature it would wrongly be 71.6 °F
   await expect(record).toContainText('ΔT 39.6 °F over a similar component');
   await expect(record).not.toContainText('71.6 °F');
@@ -74,5 +74,5 @@ test('°F on the Me tab: the hot lug’s 22 °C rise reads 39.6 °F, and its rec
   await page.getByRole('tab', { name: /Me/ }).click();
   await page.getByRole('radio', { name: 'Temperatures in: °C' }).click();
   await page.getByRole('tab', { name: /Buildings/ }).click();
-  await expect(page.getByTestId('record-thermal')).toContainText('ΔT 22 °C over a similar component');
+  await expect(page.getByTestId('circuit-record')).toContainText('ΔT 22 °C over a similar component');
 });

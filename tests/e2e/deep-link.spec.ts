@@ -19,7 +19,7 @@ test('a panel opened from its QR address has a way back and the tab bar', async 
   await page.goto(`/panels/${await panelId('LA')}`);
   await expect(page.getByTestId('position-1')).toBeVisible();
   await expect(page.getByRole('tab', { name: /Findings/ })).toBeVisible();
-  const back = page.getByRole('link', { name: /, back$/ }).filter({ visible: true }).first();
+  const back = page.getByTestId('header-back').filter({ visible: true }).first();
   await expect(back).toBeVisible();
   await back.click();
   await expect(page.getByRole('button', { name: 'Building Brackenfold Family Clinic' })).toBeVisible();
@@ -35,7 +35,7 @@ test('a circuit reloaded on its own address keeps the way back and the tab bar',
   await page.getByTestId('edit-circuit').click();
   await expect(page.getByTestId('field-description')).toBeVisible();
   await expect(page.getByRole('tab', { name: /Sync/ })).toBeVisible();
-  await expect(page.getByRole('link', { name: /, back$/ }).filter({ visible: true }).first()).toBeVisible();
+  await expect(page.getByTestId('header-back').filter({ visible: true }).first()).toBeVisible();
 });
 
 test('a deficiency opened from its address can go back to the app', async ({ page }) => {
@@ -43,7 +43,7 @@ test('a deficiency opened from its address can go back to the app', async ({ pag
   const [row] = await query<{ id: string }>(`SELECT id FROM deficiency WHERE deleted_at IS NULL ORDER BY id LIMIT 1`);
   await page.goto(`/deficiencies/${row.id}`);
   await expect(page.getByTestId('deficiency-title')).toBeVisible();
-  const back = page.getByRole('link', { name: /, back$/ }).filter({ visible: true }).first();
+  const back = page.getByTestId('header-back').filter({ visible: true }).first();
   await expect(back).toBeVisible();
   await back.click();
   await expect(page.getByRole('tab', { name: /Buildings/ })).toBeVisible();
