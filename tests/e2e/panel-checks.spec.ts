@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { ARTIFACTS, openPanel, signIn } from './helpers';
+import { ARTIFACTS, openPanel, openPanelActions, signIn } from './helpers';
 
 /** Today as the app writes it (the device's calendar day, shared/deficiency.ts todayISO). */
 const today = () => {
@@ -36,6 +36,7 @@ test('a panel’s fault current set above a breaker’s interrupting rating flag
   // the breaker at 1 is marked 10 kA
   await page.getByTestId('position-1').click();
   await expect(page.getByTestId('breaker-verified')).toHaveText('Not verified at the panel');
+  await page.getByTestId('edit-circuit').click();
   await page.getByTestId('field-interrupting').fill('10');
   await page.getByTestId('field-breaker-make').fill('Corve');
   await page.getByTestId('field-catalogue').fill('CQ250');
@@ -43,6 +44,7 @@ test('a panel’s fault current set above a breaker’s interrupting rating flag
   await expect(page.getByTestId('position-1')).toBeVisible();
 
   // the label at the panel says 22 kA
+  await openPanelActions(page);
   await page.getByTestId('edit-panel').click();
   await page.getByTestId('field-fault-ka').fill('22');
   await page.getByTestId('field-fault-on').fill('2025-03-01');
