@@ -40,7 +40,7 @@ test('the schedule header shows phase loading, with the numbers behind a tap', a
   await expect(problems).toContainText(/⚠ \d+ warnings?/);
   await expect(problems).toContainText("Dana's office");
   await expect(problems).toContainText('Monument sign');
-  await problems.getByRole('link', { name: /^31 Monument sign/ }).click();
+  await problems.getByRole('link', { name: /^31\b.*Monument sign/ }).click();
   await expect(page.getByTestId('circuit-warnings')).toContainText('%');
 });
 
