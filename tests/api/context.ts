@@ -2,10 +2,12 @@
  * API tests run createApp() against the real PostgreSQL test cluster that `npm test` starts
  * (DATABASE_URL), on the demo scenario it seeded. Nothing here is mocked.
  */
+import assert from 'node:assert/strict';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import { uuidv7 } from 'uuidv7';
 import { formatHlc } from '../../shared/hlc';
+import { SCHEMA_VERSION, type Mutation, type PushResponse } from '../../shared/sync';
 import { createApp, type App } from '../../server/app';
 import { readConfig, type Config } from '../../server/config';
 import { makeDataSource } from '../../server/data-source';
@@ -109,4 +111,11 @@ export function stamp(device: string, aheadMs = 0): string {
   const wall = Math.max(Date.now(), lastWall + 1);
   lastWall = wall;
   return formatHlc({ wallMs: wall + aheadMs, counter: 0, deviceId: device });
+}
+
+/** Pushes mutations as one device through `/api/sync/push`; the request itself must answer 200. */
+export async function pushAs(agent: request.Agent, deviceId: string, mutations: Mutation[]): Promise<PushResponse['results']> {
+  const res = await agent.post('/api/sync/push').send({ deviceId, schemaVersion: SCHEMA_VERSION, mutations });
+  assert.equal(res.status, 200, JSON.stringify(res.body));
+  return (res.body as PushResponse).results;
 }

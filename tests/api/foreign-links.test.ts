@@ -10,8 +10,8 @@ import { after, before, describe, it } from 'node:test';
 import request from 'supertest';
 import bcrypt from 'bcryptjs';
 import { uuidv7 } from 'uuidv7';
-import { SCHEMA_VERSION, type Mutation, type PushResponse } from '../../shared/sync';
-import { demoIds, makeForeignOrganisation, stamp, startApp, type TestContext } from './context';
+import { type Mutation } from '../../shared/sync';
+import { demoIds, makeForeignOrganisation, stamp, startApp, type TestContext, pushAs } from './context';
 
 let ctx: TestContext;
 let ids: Awaited<ReturnType<typeof demoIds>>;
@@ -28,11 +28,7 @@ function m(name: Mutation['name'], entityId: string, fields: Record<string, unkn
   return { id: uuidv7(), name, buildingId: ids.clinicId, entityId, baseVersion: 0, hlc: stamp(device), fields };
 }
 
-async function push(agent: request.Agent, mutations: Mutation[], deviceId = DEVICE) {
-  const res = await agent.post('/api/sync/push').send({ deviceId, schemaVersion: SCHEMA_VERSION, mutations });
-  assert.equal(res.status, 200, JSON.stringify(res.body));
-  return (res.body as PushResponse).results;
-}
+const push = (agent: request.Agent, mutations: Mutation[], deviceId = DEVICE) => pushAs(agent, deviceId, mutations);
 
 const POINTS = [
   { multiple: 1.5, minS: 30, maxS: 300 },

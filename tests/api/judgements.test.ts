@@ -9,8 +9,8 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type request from 'supertest';
 import { uuidv7 } from 'uuidv7';
-import { SCHEMA_VERSION, type Mutation, type PullResponse, type PushResponse } from '../../shared/sync';
-import { demoIds, stamp, startApp, type TestContext } from './context';
+import { SCHEMA_VERSION, type Mutation, type PullResponse } from '../../shared/sync';
+import { demoIds, stamp, startApp, type TestContext, pushAs } from './context';
 
 let ctx: TestContext;
 let ids: Awaited<ReturnType<typeof demoIds>>;
@@ -28,11 +28,7 @@ const DEVICE = 'judgements-test';
 const m = (name: Mutation['name'], entityId: string, fields: Record<string, unknown>, parentId?: string): Mutation => ({
   id: uuidv7(), name, buildingId: ids.clinicId, entityId, baseVersion: 0, hlc: stamp(DEVICE), fields, ...(parentId ? { parentId } : {}),
 });
-async function push(agent: request.Agent, mutation: Mutation) {
-  const res = await agent.post('/api/sync/push').send({ deviceId: DEVICE, schemaVersion: SCHEMA_VERSION, mutations: [mutation] });
-  assert.equal(res.status, 200, JSON.stringify(res.body));
-  return (res.body as PushResponse).results[0];
-}
+const push = async (agent: request.Agent, mutation: Mutation) => (await pushAs(agent, DEVICE, [mutation]))[0];
 async function pull(agent: request.Agent) {
   const res = await agent.post('/api/sync/pull').send({ deviceId: DEVICE, schemaVersion: SCHEMA_VERSION, cursors: {} });
   assert.equal(res.status, 200);

@@ -9,8 +9,8 @@ import assert from 'node:assert/strict';
 import { after, before, describe, it } from 'node:test';
 import type request from 'supertest';
 import { uuidv7 } from 'uuidv7';
-import { SCHEMA_VERSION, type Mutation, type PullResponse, type PushResponse } from '../../shared/sync';
-import { demoIds, makeForeignOrganisation, stamp, startApp, type TestContext } from './context';
+import { SCHEMA_VERSION, type Mutation, type PullResponse } from '../../shared/sync';
+import { demoIds, makeForeignOrganisation, stamp, startApp, type TestContext, pushAs } from './context';
 
 let ctx: TestContext;
 let ids: Awaited<ReturnType<typeof demoIds>>;
@@ -33,11 +33,7 @@ function m(name: Mutation['name'], entityId: string, fields: Record<string, unkn
   return { id: uuidv7(), name, buildingId, entityId, baseVersion: 0, hlc: stamp(DEVICE), fields };
 }
 
-async function push(agent: request.Agent, ...mutations: Mutation[]) {
-  const res = await agent.post('/api/sync/push').send({ deviceId: DEVICE, schemaVersion: SCHEMA_VERSION, mutations });
-  assert.equal(res.status, 200, JSON.stringify(res.body));
-  return (res.body as PushResponse).results;
-}
+const push = (agent: request.Agent, ...mutations: Mutation[]) => pushAs(agent, DEVICE, mutations);
 
 /** Push one mutation and expect it applied. */
 async function applied(agent: request.Agent, mutation: Mutation) {
