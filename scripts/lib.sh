@@ -241,4 +241,6 @@ ensure_web_build() {
   fi
   # the text recogniser's worker, core and English model, served from our own origin (lib/ocr-assets.ts)
   tsx scripts/ocr-assets.ts dist || die "copying the text recogniser's files into dist/ failed"
+  # brotli 11 / gzip 9 copies the server sends as they are (scripts/precompress.ts); only what changed
+  tsx scripts/precompress.ts dist || die "writing the compressed copies of dist/ failed"
 }

@@ -1,7 +1,9 @@
 import fs from 'node:fs';
+import type http from 'node:http';
 import path from 'node:path';
 import compression from 'compression';
-import express, { type Express, type Response } from 'express';
+import express, { type Express } from 'express';
+import expressStaticGzip from 'express-static-gzip';
 import helmet from 'helmet';
 import pg from 'pg';
 import type { DataSource } from 'typeorm';
@@ -31,7 +33,10 @@ export interface AppDeps {
     MailConfig;
   /** the exported web build to serve beside the API, if present */
   webDir?: string;
-  /** gzip/brotli responses when the client accepts them (default true; the bench turns it off for its baseline) */
+  /**
+   * gzip/brotli answers and the build's precompressed copies when the client accepts them (default
+   * true; the bench turns it off for its baseline)
+   */
   compress?: boolean;
 }
 
@@ -133,14 +138,21 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
   });
 
   if (webDir && fs.existsSync(path.join(webDir, 'index.html'))) {
-    app.use(
-      express.static(webDir, {
-        index: false,
-        setHeaders: (res: Response, file: string) => {
-          res.setHeader('Cache-Control', staticCacheControl(path.relative(webDir, file)));
-        },
-      }),
-    );
+    const setHeaders = (res: http.ServerResponse, file: string) => {
+      const original = file.replace(/\.(br|gz)$/, '');
+      res.setHeader('Cache-Control', staticCacheControl(path.relative(webDir, original)));
+    };
+    // the build's own brotli/gzip copies (scripts/precompress.ts) when the client takes them:
+    // smaller than the middleware's on-the-fly compression, and no CPU per request
+    const serveFiles = compress
+      ? expressStaticGzip(webDir, {
+          enableBrotli: true,
+          orderPreference: ['br', 'gzip'],
+          index: false,
+          serveStatic: { index: false, setHeaders },
+        })
+      : express.static(webDir, { index: false, setHeaders });
+    app.use(serveFiles);
     // client-side routes: any other GET without a file extension gets the single-page app
     app.get(/^\/(?!api\/).*$/, (req, res, next) => {
       if (path.extname(req.path)) return next();

@@ -11,24 +11,34 @@ export interface Actor {
   grants: Set<string>;
 }
 
-/**
- * Loaded on every signed-in request, so one plain statement: roles (role set) and owner grants
- * (role null) as rows of one union.
- */
-export async function loadActor(em: EntityManager, userId: string): Promise<Actor> {
-  // every signed-in request asks this: planned once per connection
-  const rows = await queryPrepared<{ id: string; role: Role | null }>(
-    em,
-    'actor',
-    `SELECT organisation_id AS id, role FROM membership WHERE user_id = $1
-     UNION ALL SELECT building_id AS id, NULL AS role FROM owner_grant WHERE user_id = $1`,
-    [userId],
-  );
+/** What the actor statement answers: organisation roles (role set) and owner grants (role null). */
+export interface ActorRow {
+  id: string;
+  role: Role | null;
+}
+
+/** The roles and grants of the user `userId` (an SQL expression), from memberships and owner grants. */
+export function actorRowsSql(userId: string): string {
+  return `SELECT organisation_id AS id, role FROM membership WHERE user_id = ${userId}
+     UNION ALL SELECT building_id AS id, NULL AS role FROM owner_grant WHERE user_id = ${userId}`;
+}
+const ACTOR_ROWS_SQL = actorRowsSql('$1');
+
+export function actorFrom(userId: string, rows: readonly ActorRow[]): Actor {
   return {
     userId,
     roles: new Map(rows.filter((r) => r.role !== null).map((r) => [r.id, r.role as Role])),
     grants: new Set(rows.filter((r) => r.role === null).map((r) => r.id)),
   };
+}
+
+/**
+ * Loaded on every signed-in request (usually with the session itself, server/auth/session.ts), so
+ * one plain statement: roles and owner grants as rows of one union.
+ */
+export async function loadActor(em: EntityManager, userId: string): Promise<Actor> {
+  // planned once per connection
+  return actorFrom(userId, await queryPrepared<ActorRow>(em, 'actor', ACTOR_ROWS_SQL, [userId]));
 }
 
 /**

@@ -9,6 +9,15 @@ type Parsed<S extends Schemas> = {
 };
 
 /**
+ * An answer that is already JSON text (built by PostgreSQL), sent as it is. `T` is the shape the
+ * text stands for, so a route's answer keeps its type.
+ */
+export class JsonText<T = unknown> {
+  declare readonly shape?: T;
+  constructor(readonly text: string) {}
+}
+
+/**
  * Validation middleware and handler in one: parses `{ body, params, query }` once with the shared
  * zod schemas, hands the parsed values to the handler and sends what it returns as JSON.
  * A bad id in the path is a 404 (an unknown row), a bad body a 400 naming the fields.
@@ -35,7 +44,9 @@ export function handle<S extends Schemas>(
         input[part] = result.data;
       }
       const body = await handler(input as Parsed<S>, req, res);
-      if (!res.headersSent) res.status(status).json(body ?? { ok: true });
+      if (res.headersSent) return;
+      if (body instanceof JsonText) res.status(status).type('json').send(body.text);
+      else res.status(status).json(body ?? { ok: true });
     } catch (error) {
       next(error);
     }
