@@ -119,7 +119,7 @@ pg_up() {
   if ! pg_run "$bin/pg_ctl" -D "$dir" status >/dev/null 2>&1; then
     local extra=""
     # a throwaway test cluster does not need durability
-    [ "$name" = test ] && extra="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
+    case "$name" in test | test-*) extra="-c fsync=off -c synchronous_commit=off -c full_page_writes=off" ;; esac
     pg_run "$bin/pg_ctl" -D "$dir" -l "$dir/server.log" -w -t 30 \
       -o "-c listen_addresses=127.0.0.1 -p $port -k $dir $extra" start >/dev/null \
       || { tail -20 "$dir/server.log" >&2; die "PostgreSQL did not start (log above)"; }
