@@ -20,7 +20,7 @@ export function AccessPeople({ data, myUserId }: { data: PeopleResponse; myUserI
   const adminCount = data.people.filter((p) => p.role === 'admin').length;
   return (
     <View style={styles.list}>
-      <Text variant="heading">People ({data.people.length})</Text>
+      <Text variant="heading" heading={2}>People ({data.people.length})</Text>
       {data.people.map((p) => (
         <PersonCard
           key={p.userId}
@@ -136,7 +136,7 @@ function PendingInvitations({ data }: { data: PeopleResponse }) {
   const names = new Map(data.buildings.map((b) => [b.id, b.name]));
   return (
     <AccessCard testID="pending-invitations">
-      <Text variant="heading">Invitations not yet accepted</Text>
+      <Text variant="heading" heading={2}>Invitations not yet accepted</Text>
       {data.invitations.map((i) => (
         <View key={i.id} style={styles.invitation}>
           <Text variant="strong">{i.email}</Text>
