@@ -96,7 +96,7 @@ function PersonCard({
   return (
     <AccessCard testID={`person-${slug}`}>
       <View>
-        <Text variant="strong">{person.name}{isMe ? ' (you)' : ''}</Text>
+        <Text variant="strong" heading={3}>{person.name}{isMe ? ' (you)' : ''}</Text>
         <Text tone="soft">{person.email}</Text>
       </View>
       <ChoiceField
@@ -139,7 +139,7 @@ function PendingInvitations({ data }: { data: PeopleResponse }) {
       <Text variant="heading" heading={2}>Invitations not yet accepted</Text>
       {data.invitations.map((i) => (
         <View key={i.id} style={styles.invitation}>
-          <Text variant="strong">{i.email}</Text>
+          <Text variant="strong" heading={3}>{i.email}</Text>
           <Text tone="soft">
             {ROLE_LABELS[i.role]}
             {i.buildingIds.length ? ` · ${i.buildingIds.map((id) => names.get(id) ?? 'a removed building').join(', ')}` : ''}

@@ -10,6 +10,8 @@
  *    no level skipped going down (WCAG 2.1 §1.3.1 Info and Relationships, §2.4.6 Headings and
  *    Labels; axe's `page-has-heading-one` and `heading-order` are only "moderate", so they are
  *    checked here by hand).
+ *  - nothing a phone cuts: the page's title is not jammed against the screen's left edge, and no
+ *    field's placeholder is wider than the field (the end of the example was cut off).
  * Both in the light theme and the dark one (the browser asks for dark: prefers-color-scheme).
  * The counts per screen land in tests/artifacts/a11y-<scheme>.txt.
  */
@@ -92,6 +94,33 @@ async function headingProblems(page: Page, sections: boolean): Promise<string[]>
   return problems;
 }
 
+/** Text a phone cuts or jams against its edge: the page title's left edge, placeholders wider than their field. */
+async function cutText(page: Page): Promise<string[]> {
+  return page.evaluate((edge) => {
+    const cut: string[] = [];
+    const shown = (el: HTMLElement) => {
+      const box = el.getBoundingClientRect();
+      return box.width > 0 && box.height > 0 && !el.closest('[aria-hidden="true"]');
+    };
+    const title = Array.from(document.querySelectorAll<HTMLElement>('h1, [role="heading"][aria-level="1"]')).find(shown);
+    if (title && title.getBoundingClientRect().left < edge) {
+      cut.push(`title "${title.textContent}" starts ${Math.round(title.getBoundingClientRect().left)} px from the screen's edge (want ≥ ${edge})`);
+    }
+    const ruler = document.createElement('canvas').getContext('2d');
+    for (const field of Array.from(document.querySelectorAll<HTMLInputElement | HTMLTextAreaElement>('input[placeholder], textarea[placeholder]'))) {
+      if (!ruler || !shown(field) || field.value !== '') continue;
+      const style = getComputedStyle(field);
+      ruler.font = `${style.fontWeight} ${style.fontSize} ${style.fontFamily}`;
+      const room = field.clientWidth - parseFloat(style.paddingLeft) - parseFloat(style.paddingRight);
+      // a textarea wraps its placeholder; only a one-line field cuts it
+      if (field.tagName === 'INPUT' && ruler.measureText(field.placeholder).width > room + 0.5) {
+        cut.push(`placeholder "${field.placeholder}" is wider than its field (${Math.round(room)} px): its end is cut off`);
+      }
+    }
+    return cut;
+  }, 12);
+}
+
 /** Controls a thumb must hit that are smaller than 44×44 px (visible ones only). */
 async function smallTargets(page: Page): Promise<string[]> {
   return page.evaluate((min) => {
@@ -120,18 +149,21 @@ for (const scheme of ['light', 'dark'] as const) {
     const page = await context.newPage();
     const report: string[] = [];
     const problems: string[] = [];
-    const record = (screen: string, axe: string[], small: string[], headings: string[]) => {
-      report.push(`${screen}: ${axe.length} critical/serious axe finding(s), ${small.length} target(s) under 44 px, ${headings.length} heading problem(s)`);
+    const record = (screen: string, axe: string[], small: string[], headings: string[], cut: string[]) => {
+      report.push(
+        `${screen}: ${axe.length} critical/serious axe finding(s), ${small.length} target(s) under 44 px, ${headings.length} heading problem(s), ${cut.length} cut text(s)`,
+      );
       problems.push(
         ...axe.map((p) => `${screen} · ${p}`),
         ...small.map((s) => `${screen} · small target ${s}`),
         ...headings.map((h) => `${screen} · ${h}`),
+        ...cut.map((c) => `${screen} · ${c}`),
       );
     };
 
     await page.goto('/');
     await expect(page.getByTestId('sign-in-submit')).toBeVisible();
-    record('sign-in', await axeProblems(page), await smallTargets(page), await headingProblems(page, false));
+    record('sign-in', await axeProblems(page), await smallTargets(page), await headingProblems(page, false), await cutText(page));
     // the electrician edits circuits and records readings: the screens with the most controls
     await page.getByTestId('sign-in-email').fill('electrician@ampwright.test');
     await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
@@ -142,7 +174,7 @@ for (const scheme of ['light', 'dark'] as const) {
     for (const screen of await screens()) {
       await page.goto(screen.path);
       await expect(screen.ready(page).first()).toBeVisible({ timeout: 20_000 });
-      record(screen.name, await axeProblems(page), await smallTargets(page), await headingProblems(page, screen.sections));
+      record(screen.name, await axeProblems(page), await smallTargets(page), await headingProblems(page, screen.sections), await cutText(page));
       // landmarks: the screen's body is the main one; on a phone the tab bar (when shown) is the navigation
       if ((await page.getByRole('main').filter({ visible: true }).count()) === 0) problems.push(`${screen.name} · no main landmark`);
       await page.screenshot({ path: `${ARTIFACTS}/a11y-${scheme}-${screen.name.replace(/\W+/g, '-')}.png`, fullPage: true });
