@@ -5,7 +5,9 @@ import { Text } from '@/components/ui/text';
 export default function ForgotPasswordScreen() {
   return (
     <Screen>
-      <Text variant="title">Ampwright</Text>
+      <Text variant="title" heading={1}>
+        Ampwright
+      </Text>
       <ForgotPassword />
     </Screen>
   );

@@ -31,7 +31,9 @@ export default function SignIn() {
   return (
     <Screen>
       <View style={styles.brand}>
-        <Text variant="title">Ampwright</Text>
+        <Text variant="title" heading={1}>
+          Ampwright
+        </Text>
         <Text tone="soft">Panel schedules and condition records, on the job and offline.</Text>
       </View>
       <Card style={styles.card}>

@@ -118,7 +118,7 @@ export default function Findings() {
         <View style={styles.rows} testID="finding-rows">
           {groups.map((group, i) => (
             <View key={group.key} style={styles.group} testID="finding-group">
-              <Text variant="label" accessibilityRole="header" style={styles.groupHead}>
+              <Text variant="label" heading={2} style={styles.groupHead}>
                 {i === 0 || groups[i - 1].building !== group.building ? `${group.building} · ` : ''}
                 {group.place} ({group.rows.length})
               </Text>

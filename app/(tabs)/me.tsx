@@ -35,7 +35,9 @@ export default function Me() {
   return (
     <Screen>
       <Card>
-        <Text variant="heading">{me.user.name}</Text>
+        <Text variant="heading" heading={2}>
+          {me.user.name}
+        </Text>
         <ReadOnlyField label="E-mail" value={me.user.email} />
         {me.memberships.map((m) => (
           <ReadOnlyField key={m.organisationId} label={m.organisationName} value={m.role} />

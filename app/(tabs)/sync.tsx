@@ -29,7 +29,7 @@ export default function Sync() {
   return (
     <Screen>
       <Card>
-        <Text variant="heading" testID="sync-connection">
+        <Text variant="heading" heading={2} testID="sync-connection">
           {online ? 'Connected' : 'Offline — changes stay on this device'}
         </Text>
         <Text tone="soft" testID="last-sync">Last successful sync: {timeAgo(data.lastSyncAt)}</Text>
@@ -134,7 +134,9 @@ function RefusedCard({ id, label, reason, at }: { id: string; label: string; rea
 function Section({ title, children, testID }: { title: string; children: React.ReactNode; testID: string }) {
   return (
     <Card testID={testID}>
-      <Text variant="label" tone="soft">{title.toUpperCase()}</Text>
+      <Text variant="label" tone="soft" heading={2} caps>
+        {title}
+      </Text>
       {children}
     </Card>
   );

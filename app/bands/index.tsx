@@ -26,7 +26,7 @@ export default function BandLibraryScreen() {
       <Stack.Screen options={{ title: 'Band library' }} />
       <Screen>
         <View style={styles.head}>
-          <Text variant="title">Time-current bands</Text>
+          <Text variant="title" heading={2}>Time-current bands</Text>
           <Text tone="soft">
             Bands read off the makers’ published curves, shared by everyone in your organisation. A trip test is judged against
             the circuit’s band; without one only a 300 % test can be judged, against the NETA table.

@@ -7,7 +7,9 @@ export default function InvitationScreen() {
   const { token } = useLocalSearchParams<{ token: string }>();
   return (
     <Screen>
-      <Text variant="title">Ampwright</Text>
+      <Text variant="title" heading={1}>
+        Ampwright
+      </Text>
       <AcceptInvitation token={String(token)} />
     </Screen>
   );

@@ -7,7 +7,9 @@ export default function ResetPasswordScreen() {
   const { token } = useLocalSearchParams<{ token: string }>();
   return (
     <Screen>
-      <Text variant="title">Ampwright</Text>
+      <Text variant="title" heading={1}>
+        Ampwright
+      </Text>
       <ResetPassword token={String(token)} />
     </Screen>
   );

@@ -37,7 +37,7 @@ export function AccessInvite({ organisationId, buildings }: { organisationId: st
 
   return (
     <AccessCard testID="access-invite">
-      <Text variant="heading">Invite someone</Text>
+      <Text variant="heading" heading={2}>Invite someone</Text>
       <Text tone="soft">They get an e-mail with a link that works once, for {INVITATION_DAYS} days, to choose their name and password.</Text>
       <TextField
         label="E-mail"

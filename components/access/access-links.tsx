@@ -33,7 +33,7 @@ function LinkProblem({ error, what }: { error: unknown; what: 'invitation' | 're
     code === 'used' ? 'This link has been used' : code === 'expired' ? 'This link has expired' : code === 'not_found' ? 'This link is not valid' : 'Could not open this link';
   return (
     <AccessCard testID="link-problem" accessibilityRole="alert">
-      <Text variant="heading">{title}</Text>
+      <Text variant="heading" heading={2}>{title}</Text>
       <Text tone="soft">{describeError(error)}</Text>
       <Link href={what === 'reset' ? '/forgot-password' : '/sign-in'} style={styles.link}>
         <Text tone="copper">{what === 'reset' ? 'Ask for a new link' : 'Go to sign-in'}</Text>
@@ -61,7 +61,7 @@ export function AcceptInvitation({ token }: { token: string }) {
   if (me) {
     return (
       <AccessCard testID="invitation-other-account" accessibilityRole="alert">
-        <Text variant="heading">This invitation is for {inv.email}</Text>
+        <Text variant="heading" heading={2}>This invitation is for {inv.email}</Text>
         <Text tone="soft">
           You are signed in as {me.email}. Sign out first (under Me), then open the link again to join {inv.organisationName}.
         </Text>
@@ -81,7 +81,7 @@ function JoinAsSignedIn({ token, inv }: JoinProps) {
   const router = useRouter();
   return (
     <AccessCard testID="accept-invitation">
-      <Text variant="heading">Join {inv.organisationName}</Text>
+      <Text variant="heading" heading={2}>Join {inv.organisationName}</Text>
       <Text tone="soft">You were invited as {ROLE_LABELS[inv.role].toLowerCase()}. Your account and password stay as they are.</Text>
       {accept.error && <Notice tone="danger" text={describeError(accept.error)} testID="accept-error" />}
       <Button
@@ -116,7 +116,7 @@ function JoinWithPassword({ token, inv }: JoinProps) {
   const { accept, serverFields, submit, text } = useAcceptForm(token, { password: '' }, existingAccountAcceptBody);
   return (
     <AccessCard testID="accept-invitation">
-      <Text variant="heading">Join {inv.organisationName}</Text>
+      <Text variant="heading" heading={2}>Join {inv.organisationName}</Text>
       <Text tone="soft">
         You already use Ampwright with {inv.email}. Enter that account&apos;s password to join as {ROLE_LABELS[inv.role].toLowerCase()}; nothing
         else about your account changes.
@@ -142,7 +142,7 @@ function JoinAsNewAccount({ token, inv }: JoinProps) {
   const { accept, serverFields, submit, text } = useAcceptForm(token, { name: '', password: '' }, acceptInvitationBody);
   return (
     <AccessCard testID="accept-invitation">
-      <Text variant="heading">Join {inv.organisationName}</Text>
+      <Text variant="heading" heading={2}>Join {inv.organisationName}</Text>
       <Text tone="soft">
         You were invited as {ROLE_LABELS[inv.role].toLowerCase()} with {inv.email}. Choose the name others will see and a password.
       </Text>
@@ -183,7 +183,7 @@ export function ResetPassword({ token }: { token: string }) {
   };
   return (
     <AccessCard testID="reset-password">
-      <Text variant="heading">Choose a new password</Text>
+      <Text variant="heading" heading={2}>Choose a new password</Text>
       <Text tone="soft">For {reset.data.email}. Every device signed in with the old password is signed out.</Text>
       <TextField
         label="New password"
@@ -211,7 +211,7 @@ export function ForgotPassword() {
   };
   return (
     <AccessCard testID="forgot-password">
-      <Text variant="heading">Forgot your password?</Text>
+      <Text variant="heading" heading={2}>Forgot your password?</Text>
       <Text tone="soft">Enter the e-mail you sign in with. We send a link to choose a new password; it works once, for one hour.</Text>
       <TextField
         label="E-mail"

@@ -20,7 +20,7 @@ export function AccessPeople({ data, myUserId }: { data: PeopleResponse; myUserI
   const adminCount = data.people.filter((p) => p.role === 'admin').length;
   return (
     <View style={styles.list}>
-      <Text variant="heading">People ({data.people.length})</Text>
+      <Text variant="heading" heading={2}>People ({data.people.length})</Text>
       {data.people.map((p) => (
         <PersonCard
           key={p.userId}
@@ -96,7 +96,7 @@ function PersonCard({
   return (
     <AccessCard testID={`person-${slug}`}>
       <View>
-        <Text variant="strong">{person.name}{isMe ? ' (you)' : ''}</Text>
+        <Text variant="strong" heading={3}>{person.name}{isMe ? ' (you)' : ''}</Text>
         <Text tone="soft">{person.email}</Text>
       </View>
       <ChoiceField
@@ -136,10 +136,10 @@ function PendingInvitations({ data }: { data: PeopleResponse }) {
   const names = new Map(data.buildings.map((b) => [b.id, b.name]));
   return (
     <AccessCard testID="pending-invitations">
-      <Text variant="heading">Invitations not yet accepted</Text>
+      <Text variant="heading" heading={2}>Invitations not yet accepted</Text>
       {data.invitations.map((i) => (
         <View key={i.id} style={styles.invitation}>
-          <Text variant="strong">{i.email}</Text>
+          <Text variant="strong" heading={3}>{i.email}</Text>
           <Text tone="soft">
             {ROLE_LABELS[i.role]}
             {i.buildingIds.length ? ` · ${i.buildingIds.map((id) => names.get(id) ?? 'a removed building').join(', ')}` : ''}

@@ -48,7 +48,9 @@ export function OrganisationSettingsCard({ membership }: { membership: Membershi
   };
   return (
     <Card testID="organisation-settings">
-      <Text variant="heading">{membership.organisationName}: settings</Text>
+      <Text variant="heading" heading={2}>
+        {membership.organisationName}: settings
+      </Text>
       <Text tone="soft">
         Days to repair a new deficiency, by priority: 0 is the day it is raised (P1 now). A lower priority is never due
         sooner than a higher one. Changing them does not move existing due dates.

@@ -79,7 +79,7 @@ export function CsvImport({ panelId }: { panelId: string }) {
   return (
     <View style={styles.wrap}>
       <View style={styles.head}>
-        <Text variant="title">Import into {panel.tag}</Text>
+        <Text variant="title" heading={2}>Import into {panel.tag}</Text>
         <Text tone="soft">
           Each row of the file describes the circuit at its position. A position the panel already has is updated
           (only the values that differ); a new position is added. Positions the file leaves out stay as they are

@@ -21,7 +21,7 @@ export function BuildingDeficiencies({ buildingId }: { buildingId: string }) {
   const counts = PRIORITIES.map((p) => ({ p, n: outstanding.filter((r) => r.deficiency.priority === p).length })).filter((c) => c.n > 0);
   return (
     <View style={styles.wrap} testID="building-deficiencies">
-      <Text variant="label" tone="soft">DEFICIENCIES</Text>
+      <Text variant="label" tone="soft" heading={2} caps>Deficiencies</Text>
       <Text testID="building-deficiency-count">
         {outstanding.length === 0
           ? 'No outstanding deficiencies in this building.'

@@ -79,7 +79,7 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
           <PriorityChip priority={d.priority} />
           <StatusWord status={d.status} />
         </View>
-        <Text variant="title" testID="deficiency-title">
+        <Text variant="title" heading={2} testID="deficiency-title">
           {d.title}
         </Text>
         <Text variant="strong" tone={due.overdue ? 'danger' : 'ink'} testID="deficiency-due">

@@ -2,7 +2,7 @@
 import { StyleSheet, View } from 'react-native';
 import { PressableCard } from '@/components/ui/card';
 import { STATUS_LABELS, type DeficiencyStatus } from '@/shared/records';
-import { Text } from '@/components/ui/text';
+import { Text, type HeadingLevel } from '@/components/ui/text';
 import { colours, MIN_TOUCH, radii, space } from '@/components/ui/theme';
 
 /** A mark for each status, beside its word (never the mark alone). */
@@ -24,12 +24,21 @@ export function StatusWord({ status }: { status: DeficiencyStatus }) {
   );
 }
 
-export function Section({ title, children, testID, aside }: { title: string; children: React.ReactNode; testID?: string; aside?: React.ReactNode }) {
+interface SectionProps {
+  title: string;
+  children: React.ReactNode;
+  testID?: string;
+  aside?: React.ReactNode;
+  /** 2 on a screen of its own; 3 where the section sits inside a titled block (the circuit's record) */
+  level?: HeadingLevel;
+}
+
+export function Section({ title, children, testID, aside, level = 2 }: SectionProps) {
   return (
     <View style={styles.section} testID={testID}>
       <View style={styles.sectionHead}>
-        <Text variant="label" tone="soft" accessibilityRole="header">
-          {title.toUpperCase()}
+        <Text variant="label" tone="soft" heading={level} caps>
+          {title}
         </Text>
         {aside}
       </View>

@@ -61,7 +61,7 @@ export function DoorCardReader({ panelId }: { panelId: string }) {
   return (
     <View style={styles.wrap}>
       <View style={styles.head}>
-        <Text variant="title">Read a door card into {panel.tag}</Text>
+        <Text variant="title" heading={2}>Read a door card into {panel.tag}</Text>
         <Text tone="soft">
           Photograph the circuit directory on the panel door, square on and filling the frame. The text is read on this
           device, with no signal needed. Nothing is written until you have looked at the draft and applied it; lines

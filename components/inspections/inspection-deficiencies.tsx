@@ -13,19 +13,26 @@ export function InspectionDeficiencies({
   view,
   onOpen,
   canRaise,
+  signed,
 }: {
   deficiencies: Deficiency[];
   view: BuildingView;
   onOpen: (deficiency: Deficiency) => void;
   canRaise: boolean;
+  /** a signed inspection is frozen: nothing more is raised in it, so nothing to invite */
+  signed: boolean;
 }) {
   const sorted = [...deficiencies].sort((a, b) => a.priority - b.priority || a.id.localeCompare(b.id));
   return (
     <View style={styles.box} testID="inspection-deficiencies">
-      <Text variant="label" tone="soft">DEFICIENCIES RAISED IN THIS INSPECTION ({deficiencies.length})</Text>
+      <Text variant="label" tone="soft" heading={2} caps>
+        Deficiencies raised in this inspection ({deficiencies.length})
+      </Text>
       {sorted.length === 0 && (
         <Text tone="soft">
-          {canRaise
+          {signed
+            ? 'None raised: the inspection is signed.'
+            : canRaise
             ? 'None yet. Tick a checklist item, or raise one from a reading that found a problem.'
             : 'None yet. Inspectors raise deficiencies from the readings and the checklist.'}
         </Text>

@@ -22,7 +22,7 @@ export function BuildingInspections({ buildingId }: { buildingId: string }) {
   return (
     <View style={styles.section} testID="building-inspections">
       <View style={styles.head}>
-        <Text variant="label" tone="soft" style={styles.title}>INSPECTIONS ({inspections.length})</Text>
+        <Text variant="label" tone="soft" heading={2} caps style={styles.title}>Inspections ({inspections.length})</Text>
         {canRecord && (
           <Button
             label="New inspection"

@@ -41,7 +41,7 @@ export function InspectionHeader({
       <View style={styles.titleRow}>
         <View style={styles.titleText}>
           <Text variant="small" tone="soft">{buildingName}</Text>
-          <Text variant="title">{INSPECTION_KIND_LABELS[inspection.kind]}</Text>
+          <Text variant="title" heading={2}>{INSPECTION_KIND_LABELS[inspection.kind]}</Text>
           <Text tone="soft">
             {dateText(inspection.performedOn)} · by {personName(inspection.inspectorName, inspection.inspectorId, myId)}
           </Text>

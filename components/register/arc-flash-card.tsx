@@ -61,7 +61,7 @@ export function ArcFlashCard({ buildingId, panelId, role }: { buildingId: string
     <Card size="compact" testID="arc-flash-card">
       {label ? (
         <>
-          <Text variant="strong" testID="arc-flash-summary">
+          <Text variant="strong" heading={2} testID="arc-flash-summary">
             Arc-flash label: study {label.studyDate}, review due {arcFlashReviewDue(label.studyDate)}
           </Text>
           <Text variant="small" tone="soft">
@@ -77,7 +77,7 @@ export function ArcFlashCard({ buildingId, panelId, role }: { buildingId: string
           )}
         </>
       ) : (
-        <Text variant="small" tone="soft" testID="arc-flash-summary">Arc-flash label: none recorded for this panel.</Text>
+        <Text variant="small" tone="soft" heading={2} testID="arc-flash-summary">Arc-flash label: none recorded for this panel.</Text>
       )}
       <View style={styles.caution}>
         <Text variant="small">⚠ {CAUTION}</Text>

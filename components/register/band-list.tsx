@@ -27,7 +27,7 @@ function BandRow({ band }: { band: Band }) {
           <Text variant="readingBold" tone="paper">{band.ratingA} A</Text>
         </View>
         <View style={styles.text}>
-          <Text variant="strong">{band.label}</Text>
+          <Text variant="strong" heading={3}>{band.label}</Text>
           <Text variant="small" tone="soft">
             <Text variant="reading">{band.points.length}</Text> points · {band.points[0]?.multiple}× to {band.points[band.points.length - 1]?.multiple}×
             {band.instantaneousMultiple ? ` · instantaneous ${band.instantaneousMultiple}×${band.instantaneousTolerancePct !== null ? ` ±${band.instantaneousTolerancePct} %` : ''}` : ''}

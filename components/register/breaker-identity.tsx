@@ -32,7 +32,7 @@ export function BreakerIdentity({ circuit, panel, building }: { circuit: Circuit
   };
   return (
     <Card testID="breaker-identity">
-      <Text variant="label">Breaker</Text>
+      <Text variant="label" heading={2}>Breaker</Text>
       <Text variant="body">{identity || 'Make and catalogue number not recorded'}</Text>
       <Text variant="small" tone={finding ? 'danger' : 'soft'} testID="breaker-interrupting">
         {circuit.interruptingKA ? `Interrupting rating ${circuit.interruptingKA} kA` : 'Interrupting rating not recorded'}

@@ -14,7 +14,7 @@ import { breakerLabel, conductorLabel, directoryText, vaLabel } from './circuit-
 function Fact({ label, value, testID }: { label: string; value: string; testID?: string }) {
   return (
     <View style={styles.fact} testID={testID}>
-      <Text variant="label" tone="soft" style={styles.factLabel}>
+      <Text variant="label" tone="soft" heading={3} style={styles.factLabel}>
         {label}
       </Text>
       <Text style={styles.factValue}>{value || '—'}</Text>
@@ -40,7 +40,7 @@ export function CircuitHead({ circuit, panel }: { circuit: Circuit; panel: Panel
   const load = [LOAD_KIND_LABELS[circuit.loadKind], vaLabel(circuit.loadVA), circuit.continuous ? 'continuous' : null].filter(Boolean).join(' · ');
   return (
     <View style={styles.wrap} testID="circuit-head">
-      <Text variant="title" accessibilityRole="header" testID="circuit-description">
+      <Text variant="title" heading={2} testID="circuit-description">
         {directoryText(circuit)}
       </Text>
       <Text variant="small" tone="soft">

@@ -27,8 +27,9 @@ export function DirectorySearch({ buildingId }: { buildingId: string }) {
         label="Find a breaker"
         value={query}
         onChangeText={setQuery}
-        placeholder="What it feeds, or panel and position: “walk-in cooler”, “LA 14”"
-        hint="Searches every panel of this building, also with no signal."
+        // a short example: a phone cut the longer one off mid-word; what to type is in the hint
+        placeholder="“walk-in cooler” or “LA 14”"
+        hint="What it feeds, or a panel and position. Searches every panel of this building, also with no signal."
         autoCorrect={false}
         returnKeyType="search"
         testID="directory-query"

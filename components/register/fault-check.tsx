@@ -18,7 +18,7 @@ export function FaultCheckCard({ panel, circuits }: { panel: Panel; circuits: Ci
   if (!check.judged) {
     return (
       <Card testID="fault-check">
-        <Text variant="label">Available fault current</Text>
+        <Text variant="label" heading={2}>Available fault current</Text>
         <Text variant="small" tone="soft">{check.reason}</Text>
       </Card>
     );
@@ -34,7 +34,7 @@ export function FaultCheckCard({ panel, circuits }: { panel: Panel; circuits: Ci
           .join(', ');
   return (
     <Card testID="fault-check" style={check.findings.length > 0 ? styles.flagged : undefined}>
-      <Text variant="strong" testID="fault-check-headline">
+      <Text variant="strong" heading={2} testID="fault-check-headline">
         Available fault current {check.availableKA} kA{source ? ` (${source})` : ''} — {verdict}
       </Text>
       <Text variant="small" tone="soft">

@@ -106,7 +106,7 @@ export function BuildingMaintenanceDue({ buildingId }: { buildingId: string }) {
   const due = rows.filter(isDue).length;
   return (
     <View style={styles.wrap} testID="building-maintenance-due">
-      <Text variant="label" tone="soft">MAINTENANCE DUE</Text>
+      <Text variant="label" tone="soft" heading={2} caps>Maintenance due</Text>
       {rows.length === 0 ? (
         <Text tone="soft">No panels recorded yet: add one to see when it is due.</Text>
       ) : (

@@ -22,7 +22,7 @@ export function MeasuredLoad({ panel, circuits }: { panel: Panel; circuits: Circ
   if (!recorded) {
     return (
       <Card testID="measured-load">
-        <Text variant="label">Measured amps</Text>
+        <Text variant="label" heading={2}>Measured amps</Text>
         <Text variant="small" tone="soft">No clamp readings recorded. Record them under Edit panel.</Text>
       </Card>
     );
@@ -36,7 +36,7 @@ export function MeasuredLoad({ panel, circuits }: { panel: Panel; circuits: Circ
       : null;
   return (
     <Card testID="measured-load">
-      <Text variant="label">Measured amps{panel.measuredOn ? ` · ${panel.measuredOn}` : ''}</Text>
+      <Text variant="label" heading={2}>Measured amps{panel.measuredOn ? ` · ${panel.measuredOn}` : ''}</Text>
       {rows.map((r) => (
         <Text key={r.phase} variant="reading" testID={`measured-${r.phase}`}>
           {r.phase}: {one(r.measuredA)} A measured · {one(r.calculatedA)} A calculated

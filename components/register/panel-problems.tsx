@@ -22,7 +22,7 @@ export function PanelProblems({ problems, onOpen }: { problems: CircuitProblems[
   }
   return (
     <View style={styles.box} testID="panel-problems" accessibilityRole="summary">
-      <Text variant="strong" tone="warn">⚠ {count} warning{count === 1 ? '' : 's'}</Text>
+      <Text variant="strong" tone="warn" heading={2}>⚠ {count} warning{count === 1 ? '' : 's'}</Text>
       {problems.map(({ circuit, warnings }) => (
         <Pressable
           key={circuit.id}

@@ -60,7 +60,7 @@ export function SpareCapacityCalculator({ panel, circuits }: { panel: Panel; cir
 
   return (
     <Card testID="spare-capacity">
-      <Text variant="label">Can this panel take…?</Text>
+      <Text variant="label" heading={2}>Can this panel take…?</Text>
       <Text variant="small" tone="soft">
         {peak ? `Measured peak: ${peak}.` : 'No measured peak demand recorded.'}
         {panel.feederRatingA ? ` Feeder ${panel.feederRatingA} A.` : ''}

@@ -59,7 +59,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
 
   return (
     <View style={styles.wrap} testID="circuit-record">
-      <Text variant="heading" accessibilityRole="header">
+      <Text variant="heading" heading={2}>
         Record
       </Text>
       <Text variant="small" tone="soft">
@@ -101,7 +101,7 @@ export function CircuitRecord({ circuitId, panelId }: { circuitId: string; panel
       )}
       <CircuitThermalTrends readings={readings.filter((r) => r.reading.kind === 'thermal')} view={view} />
 
-      <Section title="Open deficiencies" testID="record-deficiencies">
+      <Section title="Open deficiencies" testID="record-deficiencies" level={3}>
         {outstanding.length === 0 ? (
           <Text tone="soft">None outstanding on this circuit{closed > 0 ? ` (${closed} closed or deferred)` : ''}.</Text>
         ) : (

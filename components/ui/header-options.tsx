@@ -1,4 +1,4 @@
-import { Pressable, StyleSheet } from 'react-native';
+import { Pressable, StyleSheet, View } from 'react-native';
 import { SyncStatus } from '@/components/sync/sync-status';
 import { Text } from './text';
 import { colours, fonts, MIN_TOUCH, space } from './theme';
@@ -16,7 +16,9 @@ interface BackProps {
  * takes the theme's colour like every other word on the bar.
  */
 function BackButton({ canGoBack, onPress, accessibilityLabel }: BackProps) {
-  if (!canGoBack) return null;
+  // with no way back (a tab's first screen) the title would sit 4 px from the screen's edge: a
+  // spacer lines it up with the content below
+  if (!canGoBack) return <View style={styles.noBack} />;
   return (
     <Pressable accessibilityRole="button" accessibilityLabel={accessibilityLabel ?? 'Go back'} onPress={onPress} style={styles.back} testID="header-back">
       <Text variant="title" tone="bar" aria-hidden>
@@ -40,5 +42,6 @@ export function useHeaderOptions(withSyncStatus: boolean) {
 }
 
 const styles = StyleSheet.create({
+  noBack: { width: space.md },
   back: { minWidth: MIN_TOUCH, minHeight: MIN_TOUCH, alignItems: 'center', justifyContent: 'center', marginLeft: space.xs },
 });

@@ -18,7 +18,7 @@ export function ErrorState({ error, onRetry }: { error: unknown; onRetry?: () =>
   return (
     <View style={styles.centre} accessibilityRole="alert">
       <StorageProblem />
-      <Text variant="heading">Could not load this</Text>
+      <Text variant="heading" heading={2}>Could not load this</Text>
       <Text tone="soft" style={styles.text}>
         {describeError(error)}
       </Text>
@@ -31,7 +31,7 @@ export function EmptyState({ title, hint, children }: { title: string; hint: str
   return (
     <View style={styles.centre}>
       <StorageProblem />
-      <Text variant="heading">{title}</Text>
+      <Text variant="heading" heading={2}>{title}</Text>
       <Text tone="soft" style={styles.text}>
         {hint}
       </Text>

@@ -5,6 +5,13 @@
  *  - every button, link, radio, checkbox, tab and date field is at least 44×44 px (WCAG 2.1
  *    §2.5.5 Target Size, the size DESIGN.md asks for a gloved thumb).
  *  - every screen has a main landmark, and the tab bar is a navigation landmark ("Sections").
+ *  - headings a screen reader can walk: exactly one level-1 heading (the header bar's title, or the
+ *    screen's own title where there is no bar), a level-2 heading on every screen with sections, and
+ *    no level skipped going down (WCAG 2.1 §1.3.1 Info and Relationships, §2.4.6 Headings and
+ *    Labels; axe's `page-has-heading-one` and `heading-order` are only "moderate", so they are
+ *    checked here by hand).
+ *  - nothing a phone cuts: the page's title is not jammed against the screen's left edge, and no
+ *    field's placeholder is wider than the field (the end of the example was cut off).
  * Both in the light theme and the dark one (the browser asks for dark: prefers-color-scheme).
  * The counts per screen land in tests/artifacts/a11y-<scheme>.txt.
  */
@@ -19,6 +26,8 @@ interface Screen {
   path: string;
   /** something on the screen that says it has drawn its content */
   ready: (page: Page) => ReturnType<Page['getByTestId']>;
+  /** the screen is cut into titled sections (cards, groups): it must have a level-2 heading */
+  sections: boolean;
 }
 
 async function screens(): Promise<Screen[]> {
@@ -31,19 +40,20 @@ async function screens(): Promise<Screen[]> {
       WHERE b.name = 'Brackenfold Family Clinic'`,
   );
   return [
-    { name: 'Buildings', path: '/', ready: (p) => p.getByRole('button', { name: 'Building Brackenfold Family Clinic' }) },
-    { name: 'a building', path: `/buildings/${ids.building}`, ready: (p) => p.getByTestId('panel-LA') },
-    { name: 'the panel schedule', path: `/panels/${ids.panel}`, ready: (p) => p.getByTestId('position-1') },
-    { name: 'a circuit', path: `/panels/${ids.panel}/circuits/${ids.circuit}`, ready: (p) => p.getByRole('heading', { name: 'LA · 28' }) },
+    { name: 'Buildings', sections: false, path: '/', ready: (p) => p.getByRole('button', { name: 'Building Brackenfold Family Clinic' }) },
+    { name: 'a building', sections: true, path: `/buildings/${ids.building}`, ready: (p) => p.getByTestId('panel-LA') },
+    { name: 'the panel schedule', sections: true, path: `/panels/${ids.panel}`, ready: (p) => p.getByTestId('position-1') },
+    { name: 'a circuit', sections: true, path: `/panels/${ids.panel}/circuits/${ids.circuit}`, ready: (p) => p.getByRole('heading', { name: 'LA · 28' }) },
     {
       name: 'a reading form',
+      sections: true,
       path: `/inspections/${ids.inspection}/reading?kind=torque&panelId=${ids.panel}`,
       ready: (p) => p.getByTestId('save-reading'),
     },
-    { name: 'Findings', path: '/findings', ready: (p) => p.getByTestId('priority-counts') },
-    { name: 'a deficiency', path: `/deficiencies/${ids.deficiency}`, ready: (p) => p.getByTestId('deficiency-detail') },
-    { name: 'Sync', path: '/sync', ready: (p) => p.getByTestId('sync-now') },
-    { name: 'Me', path: '/me', ready: (p) => p.getByTestId('sign-out') },
+    { name: 'Findings', sections: true, path: '/findings', ready: (p) => p.getByTestId('priority-counts') },
+    { name: 'a deficiency', sections: true, path: `/deficiencies/${ids.deficiency}`, ready: (p) => p.getByTestId('deficiency-detail') },
+    { name: 'Sync', sections: true, path: '/sync', ready: (p) => p.getByTestId('sync-now') },
+    { name: 'Me', sections: true, path: '/me', ready: (p) => p.getByTestId('sign-out') },
   ];
 }
 
@@ -53,6 +63,62 @@ async function axeProblems(page: Page): Promise<string[]> {
   return result.violations
     .filter((v) => v.impact === 'critical' || v.impact === 'serious')
     .flatMap((v) => v.nodes.map((n) => `${v.impact} ${v.id}: ${n.target.join(' ')} — ${n.failureSummary?.split('\n')[1]?.trim() ?? v.help}`));
+}
+
+/**
+ * What is wrong with the headings on the page as a screen reader meets them (visible ones, outside
+ * screens the stack has hidden), in document order: not one level-1 heading, no level 2 on a screen
+ * with sections, or a level skipped going down (a 1 followed by a 3).
+ */
+async function headingProblems(page: Page, sections: boolean): Promise<string[]> {
+  const headings = await page.evaluate(() =>
+    Array.from(document.querySelectorAll<HTMLElement>('h1, h2, h3, h4, h5, h6, [role="heading"]'))
+      .filter((el) => {
+        const box = el.getBoundingClientRect();
+        return box.width > 0 && box.height > 0 && !el.closest('[aria-hidden="true"]');
+      })
+      .map((el) => {
+        const level = Number(el.getAttribute('aria-level') ?? (/^H([1-6])$/.exec(el.tagName)?.[1] ?? '2'));
+        return { level, text: (el.textContent ?? '').trim().slice(0, 40) };
+      }),
+  );
+  const problems: string[] = [];
+  const list = headings.map((h) => `h${h.level} "${h.text}"`).join(', ') || 'none';
+  const ones = headings.filter((h) => h.level === 1).length;
+  if (ones !== 1) problems.push(`${ones} level-1 headings (want 1): ${list}`);
+  if (sections && !headings.some((h) => h.level === 2)) problems.push(`no level-2 heading for its sections: ${list}`);
+  headings.forEach((h, i) => {
+    const before = i === 0 ? 0 : headings[i - 1].level;
+    if (h.level > before + 1) problems.push(`heading level skipped: h${h.level} "${h.text}" after ${i === 0 ? 'the top' : `h${before}`}`);
+  });
+  return problems;
+}
+
+/** Text a phone cuts or jams against its edge: the page title's left edge, placeholders wider than their field. */
+async function cutText(page: Page): Promise<string[]> {
+  return page.evaluate((edge) => {
+    const cut: string[] = [];
+    const shown = (el: HTMLElement) => {
+      const box = el.getBoundingClientRect();
+      return box.width > 0 && box.height > 0 && !el.closest('[aria-hidden="true"]');
+    };
+    const title = Array.from(document.querySelectorAll<HTMLElement>('h1, [role="heading"][aria-level="1"]')).find(shown);
+    if (title && title.getBoundingClientRect().left < edge) {
+      cut.push(`title "${title.textContent}" starts ${Math.round(title.getBoundingClientRect().left)} px from the screen's edge (want ≥ ${edge})`);
+    }
+    const ruler = document.createElement('canvas').getContext('2d');
+    for (const field of Array.from(document.querySelectorAll<HTMLInputElement | HTMLTextAreaElement>('input[placeholder], textarea[placeholder]'))) {
+      if (!ruler || !shown(field) || field.value !== '') continue;
+      const style = getComputedStyle(field);
+      ruler.font = `${style.fontWeight} ${style.fontSize} ${style.fontFamily}`;
+      const room = field.clientWidth - parseFloat(style.paddingLeft) - parseFloat(style.paddingRight);
+      // a textarea wraps its placeholder; only a one-line field cuts it
+      if (field.tagName === 'INPUT' && ruler.measureText(field.placeholder).width > room + 0.5) {
+        cut.push(`placeholder "${field.placeholder}" is wider than its field (${Math.round(room)} px): its end is cut off`);
+      }
+    }
+    return cut;
+  }, 12);
 }
 
 /** Controls a thumb must hit that are smaller than 44×44 px (visible ones only). */
@@ -83,14 +149,21 @@ for (const scheme of ['light', 'dark'] as const) {
     const page = await context.newPage();
     const report: string[] = [];
     const problems: string[] = [];
-    const record = (screen: string, axe: string[], small: string[]) => {
-      report.push(`${screen}: ${axe.length} critical/serious axe finding(s), ${small.length} target(s) under 44 px`);
-      problems.push(...axe.map((p) => `${screen} · ${p}`), ...small.map((s) => `${screen} · small target ${s}`));
+    const record = (screen: string, axe: string[], small: string[], headings: string[], cut: string[]) => {
+      report.push(
+        `${screen}: ${axe.length} critical/serious axe finding(s), ${small.length} target(s) under 44 px, ${headings.length} heading problem(s), ${cut.length} cut text(s)`,
+      );
+      problems.push(
+        ...axe.map((p) => `${screen} · ${p}`),
+        ...small.map((s) => `${screen} · small target ${s}`),
+        ...headings.map((h) => `${screen} · ${h}`),
+        ...cut.map((c) => `${screen} · ${c}`),
+      );
     };
 
     await page.goto('/');
     await expect(page.getByTestId('sign-in-submit')).toBeVisible();
-    record('sign-in', await axeProblems(page), await smallTargets(page));
+    record('sign-in', await axeProblems(page), await smallTargets(page), await headingProblems(page, false), await cutText(page));
     // the electrician edits circuits and records readings: the screens with the most controls
     await page.getByTestId('sign-in-email').fill('electrician@ampwright.test');
     await page.getByTestId('sign-in-password').fill(DEMO_PASSWORD);
@@ -101,7 +174,7 @@ for (const scheme of ['light', 'dark'] as const) {
     for (const screen of await screens()) {
       await page.goto(screen.path);
       await expect(screen.ready(page).first()).toBeVisible({ timeout: 20_000 });
-      record(screen.name, await axeProblems(page), await smallTargets(page));
+      record(screen.name, await axeProblems(page), await smallTargets(page), await headingProblems(page, screen.sections), await cutText(page));
       // landmarks: the screen's body is the main one; on a phone the tab bar (when shown) is the navigation
       if ((await page.getByRole('main').filter({ visible: true }).count()) === 0) problems.push(`${screen.name} · no main landmark`);
       await page.screenshot({ path: `${ARTIFACTS}/a11y-${scheme}-${screen.name.replace(/\W+/g, '-')}.png`, fullPage: true });

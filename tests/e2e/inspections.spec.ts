@@ -228,3 +228,18 @@ test('an electrician records a torque audit with no signal; it arrives when the 
   expect(readings.map((r) => r.kind)).toEqual(['torque', 'visual']);
   expect(await query('SELECT id FROM deficiency WHERE inspection_id = $1', [inspectionId])).toHaveLength(0);
 });
+
+test('a signed inspection that raised nothing says so, and does not ask anyone to tick the checklist', async ({ page }) => {
+  const [signed] = await query<{ id: string }>(
+    `SELECT i.id FROM inspection i JOIN building b ON b.id = i.building_id
+      WHERE b.name = 'Brackenfold Family Clinic' AND i.signed_at IS NOT NULL AND i.deleted_at IS NULL
+        AND NOT EXISTS (SELECT 1 FROM deficiency d WHERE d.inspection_id = i.id AND d.deleted_at IS NULL)
+      ORDER BY i.id LIMIT 1`,
+  );
+  // the admin may raise deficiencies, so an open inspection would invite a tick; a signed one is frozen
+  await signIn(page, 'admin');
+  await page.goto(`/inspections/${signed.id}`);
+  const raised = page.getByTestId('inspection-deficiencies');
+  await expect(raised).toContainText('None raised: the inspection is signed.');
+  await expect(raised).not.toContainText('Tick');
+});

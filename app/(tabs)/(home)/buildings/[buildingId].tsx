@@ -28,7 +28,7 @@ export default function BuildingScreen() {
           {building.notes ? <Text variant="small" tone="faint">{building.notes}</Text> : null}
         </View>
         <DirectorySearch buildingId={building.id} />
-        <Text variant="label" tone="soft">PANELS, AS THE POWER FLOWS</Text>
+        <Text variant="label" tone="soft" heading={2} caps>Panels, as the power flows</Text>
         {panels.length === 0 ? (
           <EmptyState title="No panels recorded" hint="Panels of this building will appear here, arranged by which panel feeds which." />
         ) : (

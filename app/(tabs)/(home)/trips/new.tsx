@@ -31,7 +31,7 @@ export default function NewTripScreen() {
         <Text variant="small" tone="soft">
           {building.name} · Panel {panel.tag}
         </Text>
-        <Text variant="heading">
+        <Text variant="heading" heading={2}>
           <Text variant="readingBold">{circuit.position}</Text> {directoryText(circuit)}
         </Text>
         <Text variant="reading" tone="soft">{breakerLabel(circuit)}</Text>

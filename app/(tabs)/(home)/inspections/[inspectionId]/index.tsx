@@ -77,6 +77,7 @@ export default function InspectionScreen() {
         deficiencies={deficiencies}
         view={view}
         canRaise={actions.canRaise}
+        signed={inspection.signedAt !== null}
         onOpen={(d) => router.push({ pathname: '/deficiencies/[deficiencyId]', params: { deficiencyId: d.id } })}
       />
       <SafetyNote />

@@ -105,7 +105,7 @@ export default function ReadingScreen() {
           <Text variant="small" tone="soft">
             {view.building.name} · panel {panel.tag}
           </Text>
-          <Text variant="title">{existing ? READING_KIND_LABELS[kind] : `New ${READING_KIND_LABELS[kind].toLowerCase()}`}</Text>
+          <Text variant="title" heading={2}>{existing ? READING_KIND_LABELS[kind] : `New ${READING_KIND_LABELS[kind].toLowerCase()}`}</Text>
           <View style={styles.caution} testID="kind-caution">
             <Text variant="small">⚠ {KIND_CAUTION[kind]}</Text>
           </View>
