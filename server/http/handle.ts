@@ -2,6 +2,7 @@ import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import type { z } from 'zod';
 import { fieldErrors } from '../../shared/schemas';
 import { ValidationError } from './errors';
+import { sendJson } from './send-json';
 
 type Schemas = { body?: z.ZodType; params?: z.ZodType; query?: z.ZodType };
 type Parsed<S extends Schemas> = {
@@ -45,8 +46,7 @@ export function handle<S extends Schemas>(
       }
       const body = await handler(input as Parsed<S>, req, res);
       if (res.headersSent) return;
-      if (body instanceof JsonText) res.status(status).type('json').send(body.text);
-      else res.status(status).json(body ?? { ok: true });
+      sendJson(req, res, status, body instanceof JsonText ? body.text : JSON.stringify(body ?? { ok: true }));
     } catch (error) {
       next(error);
     }
