@@ -1,7 +1,7 @@
 /**
  * Every main screen as each role sees it, at a phone's 390 × 844 and a desk's 1280 × 800, saved as
- * full-page screenshots in tests/artifacts/screens/<role>-<screen>-<width>.png for a person to look
- * at. Each screen must show its own content first (a screen stuck on "loading" or an error fails).
+ * screenshots of the whole content (the window grown until no scroll container hides anything) in
+ * tests/artifacts/screens/<role>-<screen>-<width>.png for a person to look at. Each screen must show its own content first (a screen stuck on "loading" or an error fails).
  */
 import { expect, test, type Locator, type Page } from '@playwright/test';
 import { query } from './db';
@@ -74,12 +74,40 @@ const SCREENS: readonly Screen[] = [
   { name: 'users', path: () => '/users', ready: (p) => p.getByText(/@ampwright\.test/).first(), roles: ['admin'] },
 ];
 
+const settle = (page: Page) =>
+  page.evaluate(() => new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve))));
+
+/** The most any scroll container of the page hides below its fold (screens scroll inside, not the page). */
+function hiddenBelow(page: Page): Promise<number> {
+  return page.evaluate(() => {
+    let hidden = 0;
+    for (const element of Array.from(document.querySelectorAll<HTMLElement>('body *'))) {
+      if (!/(auto|scroll)/.test(getComputedStyle(element).overflowY)) continue;
+      hidden = Math.max(hidden, element.scrollHeight - element.clientHeight);
+    }
+    return hidden;
+  });
+}
+
+/** Caps the picture's height: a schedule of 42 positions fits, an endless list would not. */
+const MAX_HEIGHT = 9000;
+
 async function shoot(page: Page, name: string) {
   for (const size of SIZES) {
     await page.setViewportSize(size);
     // let the layout settle to the new width (wide layouts swap components) before the picture
-    await page.evaluate(() => new Promise((resolve) => requestAnimationFrame(() => requestAnimationFrame(resolve))));
+    await settle(page);
+    // a screen scrolls inside its own container, so "full page" alone stops at the first
+    // screenful: grow the window until nothing is hidden below (twice: lists render more rows)
+    for (let round = 0; round < 2; round++) {
+      const hidden = await hiddenBelow(page);
+      if (hidden <= 0) break;
+      const { height } = page.viewportSize() ?? size;
+      await page.setViewportSize({ width: size.width, height: Math.min(height + hidden, MAX_HEIGHT) });
+      await settle(page);
+    }
     await page.screenshot({ path: `${DIR}/${name}-${size.width}.png`, fullPage: true });
+    await page.setViewportSize(size);
   }
 }
 
