@@ -15,9 +15,11 @@ export interface ConductorSizePickerProps {
   onChange: (value: ConductorSize | null) => void;
   error?: string;
   hint?: string;
+  /** the field's label, "Conductor size" unless a form says more (optional, what it checks) */
+  label?: string;
 }
 
-export function ConductorSizePicker({ value, onChange, error, hint }: ConductorSizePickerProps) {
+export function ConductorSizePicker({ value, onChange, error, hint, label = 'Conductor size' }: ConductorSizePickerProps) {
   // index -1 is "not recorded", one step below the smallest size
   const at = value === null ? -1 : CONDUCTOR_SIZES.indexOf(value);
   const step = (by: number) => {
@@ -26,11 +28,11 @@ export function ConductorSizePicker({ value, onChange, error, hint }: ConductorS
   };
   const words = value === null ? 'Not recorded' : conductorSizeLabel(value);
   return (
-    <Field label="Conductor size" error={error} hint={hint}>
+    <Field label={label} error={error} hint={hint}>
       <View
         style={styles.row}
         accessibilityRole="adjustable"
-        accessibilityLabel="Conductor size"
+        accessibilityLabel={label}
         accessibilityValue={{ text: words }}
         accessibilityActions={[{ name: 'increment' }, { name: 'decrement' }]}
         onAccessibilityAction={(e) => step(e.nativeEvent.actionName === 'increment' ? 1 : -1)}

@@ -10,11 +10,11 @@ import type { ConductorSizePickerProps } from './conductor-size-picker';
 
 const NONE = '';
 
-export function ConductorSizePicker({ value, onChange, error, hint }: ConductorSizePickerProps) {
+export function ConductorSizePicker({ value, onChange, error, hint, label = 'Conductor size' }: ConductorSizePickerProps) {
   return (
-    <Field label="Conductor size" error={error} hint={hint}>
+    <Field label={label} error={error} hint={hint}>
       <select
-        aria-label="Conductor size"
+        aria-label={label}
         aria-invalid={error ? true : undefined}
         data-testid="field-conductor-size"
         value={value ?? NONE}

@@ -100,7 +100,10 @@ test('an inspector surveys panel LA: a hot lug is P1 now, a loose lug is loose, 
   await page.getByTestId('field-circuit').click();
   await page.getByTestId('field-circuit-13').click();
   await page.getByRole('radio', { name: 'Specified value comes from: Fallback table (UL 486A-B)' }).click();
-  await page.getByRole('radio', { name: 'Conductor size: 12 AWG' }).click();
+  // one compact select, not a wall of chips (the circuit form's picker); the circuit's size is filled in
+  await expect(page.getByTestId('field-conductor-size')).toHaveValue('12');
+  await page.getByTestId('field-conductor-size').selectOption('10');
+  await page.getByTestId('field-conductor-size').selectOption('12');
   await page.getByRole('radio', { name: 'Screw kind: Small slotted' }).click();
   await expect(page.getByTestId('field-specified')).toHaveValue('20');
   await expect(page.getByTestId('torque-fallback')).toContainText('NEC 110.14(D)');

@@ -3,7 +3,7 @@
  * injection. The form (reading-form.tsx) owns the draft, the checks and the save.
  */
 import { StyleSheet, View } from 'react-native';
-import { SYSTEM_INFO, CONDUCTOR_SIZES, conductorSizeLabel } from '@/shared/domain';
+import { SYSTEM_INFO, conductorSizeLabel } from '@/shared/domain';
 import {
   READING_PHASES,
   THERMAL_COMPONENTS,
@@ -14,6 +14,7 @@ import {
 } from '@/shared/records';
 import type { Circuit, Panel } from '@/shared/schemas';
 import { breakerLabel } from '@/components/register/circuit-format';
+import { ConductorSizePicker } from '@/components/register/conductor-size-picker';
 import { ChoiceField, FieldRow, TextField } from '@/components/ui/fields';
 import { numberOrNull } from '@/components/ui/form-values';
 import { fallbackIn, type ReadingDraft } from './reading-draft';
@@ -173,9 +174,8 @@ export function TorqueFields({ draft, set, errors, text, field, circuits }: Kind
         }}
         error={errors.specSource}
       />
-      <ChoiceField
+      <ConductorSizePicker
         label={usesTable ? 'Conductor size' : 'Conductor size (optional: checks the value against the table)'}
-        choices={CONDUCTOR_SIZES.map((s) => ({ value: s, label: conductorSizeLabel(s) }))}
         value={draft.conductorSize}
         onChange={(v) => {
           set('conductorSize')(v);
