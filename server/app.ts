@@ -14,6 +14,7 @@ import { DB_APPLICATION_NAME, DB_CONNECT_TIMEOUT_MS, guardPool } from './db-heal
 import { errorHandler } from './http/error-handler';
 import type { LimitConfig } from './http/rate-limits';
 import { requestLog } from './http/request-log';
+import { COMPRESS_SETTING } from './http/send-json';
 import { jsonBodiesOnly, sameOriginOnly } from './http/same-origin';
 import { accessRouter } from './routes/access';
 import { documentsRouter } from './routes/documents';
@@ -89,6 +90,7 @@ export function createApp({ dataSource, config, webDir, compress = true }: AppDe
   });
   // a phone on a weak signal: JSON and the JS bundle shrink 6–15× (brotli when the client offers
   // it, else gzip); images and PDFs are left alone by the middleware's compressible-type check
+  app.set(COMPRESS_SETTING, compress);
   if (compress) app.use(compression());
   // before any session or body is read: a cross-site write, or a body that is not JSON (photos
   // are multipart), is refused here (server/http/same-origin.ts)

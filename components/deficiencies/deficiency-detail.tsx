@@ -128,7 +128,9 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
 
       {d.source === 'reading' && (
         <Card size="row" testID="deficiency-source">
-          <Text variant="label" tone="soft">WHAT THE READING SAID</Text>
+          <Text variant="label" tone="soft" heading={2} caps>
+            What the reading said
+          </Text>
           {reading && assessment ? (
             <>
               <View style={styles.chips}>
@@ -146,7 +148,9 @@ export function DeficiencyDetail({ deficiencyId, onDeleted }: { deficiencyId: st
       )}
       {d.source === 'checklist' && d.check ? (
         <Card size="row" testID="deficiency-source">
-          <Text variant="label" tone="soft">FROM THE VISUAL CHECKLIST</Text>
+          <Text variant="label" tone="soft" heading={2} caps>
+            From the visual checklist
+          </Text>
           <Text>{VISUAL_CHECKS[d.check].label}</Text>
         </Card>
       ) : null}

@@ -40,7 +40,9 @@ export function InspectionChecklist({
   const keys = showAll ? VISUAL_CHECK_KEYS : VISUAL_CHECK_KEYS.filter((k) => byCheck.has(k));
   return (
     <View style={styles.box} testID={`checklist-${panelTag}`}>
-      <Text variant="label" tone="soft">VISUAL CHECKLIST · {panelTag}</Text>
+      <Text variant="label" tone="soft" heading={2} caps>
+        Visual checklist · {panelTag}
+      </Text>
       {showAll && (
         <Text variant="small" tone="faint">
           {raises

@@ -24,7 +24,9 @@ export function InspectionSignOff({
   const tally = `${readingCount} reading${readingCount === 1 ? '' : 's'}, ${deficiencyCount} deficienc${deficiencyCount === 1 ? 'y' : 'ies'} raised.`;
   return (
     <Card size="row" strong testID="sign-off">
-      <Text variant="label" tone="soft">SIGN-OFF</Text>
+      <Text variant="label" tone="soft" heading={2} caps>
+        Sign-off
+      </Text>
       <Text variant="small">{tally}</Text>
       {signed ? (
         <Text variant="strong">✓ {signed}</Text>

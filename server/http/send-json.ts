@@ -2,6 +2,9 @@ import zlib from 'node:zlib';
 import type { Request, Response } from 'express';
 import Negotiator from 'negotiator';
 
+/** The app setting `createApp({ compress: false })` turns off (the bench's uncompressed baseline). */
+export const COMPRESS_SETTING = 'compress answers';
+
 /** Below this an answer goes as it is: compressing saves less than it costs (the middleware's rule). */
 const MIN_BYTES = 1024;
 /** Up to this an answer is compressed in one synchronous call; bigger ones stream through the middleware. */
@@ -28,7 +31,8 @@ interface EncodingNegotiator {
 export function sendJson(req: Request, res: Response, status: number, text: string): void {
   res.status(status).type('json');
   const size = Buffer.byteLength(text);
-  if (size < MIN_BYTES || size > MAX_ONE_CALL_BYTES || req.method === 'HEAD') {
+  const off = req.app.get(COMPRESS_SETTING) === false;
+  if (off || size < MIN_BYTES || size > MAX_ONE_CALL_BYTES || req.method === 'HEAD') {
     res.send(text);
     return;
   }

@@ -121,6 +121,18 @@ describe('compressed answers', () => {
     assert.ok(JSON.parse(me.bytes.toString()).user);
   });
 
+  it('sends a small answer plain too when the app is made with compression off (the bench baseline)', async () => {
+    const cookie = await sessionCookie();
+    const plainApp = createApp({ dataSource: ctx.ds, config: readConfig(), compress: false });
+    try {
+      const res = await request(plainApp).get(`/api/panels/${ids.clinicLAId}`).set('cookie', cookie).set('accept-encoding', 'br, gzip').expect(200);
+      assert.equal(res.headers['content-encoding'], undefined);
+      assert.ok(res.body.circuits.length > 0);
+    } finally {
+      await plainApp.closeResources();
+    }
+  });
+
   it('sends it plain to a client that accepts no encoding', async () => {
     const cookie = await sessionCookie();
     const res = await raw('POST', '/api/sync/pull', { cookie, 'accept-encoding': 'identity' }, pull);

@@ -97,7 +97,9 @@ export function ReadingForm(props: ReadingFormProps) {
 
   const judgement = (
     <Card size="row" strong testID="live-assessment" accessibilityLiveRegion="polite">
-      <Text variant="label" tone="soft">WHAT IT MEANS</Text>
+      <Text variant="label" tone="soft" heading={2} caps>
+        What it means
+      </Text>
       {live.assessment ? (
         <ReadingAssessment assessment={live.assessment} />
       ) : (
