@@ -20,9 +20,12 @@ API_SMTP_PORT="${AMPWRIGHT_TEST_API_SMTP_PORT:-54345}"
 API_MAIL_WEB_PORT="${AMPWRIGHT_TEST_API_MAIL_WEB_PORT:-54346}"
 server_pid=""
 api_pid=""
+checks_pid=""
 cleanup() {
   [ -n "$server_pid" ] && kill "$server_pid" 2>/dev/null && wait "$server_pid" 2>/dev/null
-  if [ -n "$api_pid" ]; then pkill -P "$api_pid" 2>/dev/null; kill "$api_pid" 2>/dev/null; fi
+  for pid in "$api_pid" "$checks_pid"; do
+    if [ -n "$pid" ]; then pkill -P "$pid" 2>/dev/null; kill "$pid" 2>/dev/null; fi
+  done
   s3_down test
   mail_down test
   pg_down test
@@ -34,15 +37,10 @@ trap cleanup EXIT
 
 declare -a summary=()
 failed=0
-suite() { # suite NAME COMMAND...: run one suite, remember how it went
-  local name="$1"; shift
-  log "Suite: $name"
-  if "$@"; then summary+=("passed  $name"); else summary+=("FAILED  $name"); failed=$((failed + 1)); fi
+# record NAME STATUS: one summary line per suite, in the order they are reported
+record() {
+  if [ "$2" -eq 0 ]; then summary+=("passed  $1"); else summary+=("FAILED  $1"); failed=$((failed + 1)); fi
 }
-
-# the two projects at once: two cores, and neither waits for the other
-suite "type check (client and server)" bash -c 'tsc --noEmit -p . & client=$!; tsc --noEmit -p server; server=$?; wait "$client" && [ "$server" -eq 0 ]'
-suite "lint (eslint)" eslint .
 
 pg_up test "$TEST_PG_PORT" fresh
 # a fresh fake S3 for the browser suite's server (exports S3_*)
@@ -53,10 +51,21 @@ export NODE_ENV=test LOG_LEVEL="${LOG_LEVEL:-warn}"
 tsx_server scripts/db.ts migrate >/dev/null
 tsx_server scripts/db.ts seed-if-empty >/dev/null
 export TSX_TSCONFIG_PATH=server/tsconfig.json
+logs="$(pg_datadir test)"
 
-# The API suite runs beside the unit and browser suites, on a cluster, fake S3 and inbox of its own
-# (its restart test stops its cluster; its e-mail tests read its inbox): the browser suite mostly
-# waits on the page, so the two cores have room. Its output is printed when the browser suite ends.
+# The browser suite is most of the time, and mostly waits on the page; everything else runs beside
+# it so the two cores stay busy: lint then unit, and the API suite on a cluster, fake S3 and inbox of its own (its restart test stops its own cluster, its
+# e-mail tests read its own inbox). Their output is printed when the browser suite ends.
+checks() {
+  local status=0
+  eslint . || status=$?
+  echo "lint (eslint)|$status" >>"$logs/checks.status"
+  rm -f tests/artifacts/door-card-ocr.txt
+  status=0; node --import tsx --test --test-reporter=dot $(find tests/unit -name "*.test.ts" | sort) || status=$?
+  echo "unit (shared computations)|$status" >>"$logs/checks.status"
+  # the door-card recognition figures per variant (tests/unit/door-card-ocr.test.ts writes them)
+  if [ -f tests/artifacts/door-card-ocr.txt ]; then sed 's/^/  /' tests/artifacts/door-card-ocr.txt; fi
+}
 api_suite() {
   pg_up test-api "$API_PG_PORT" fresh
   s3_up test-api "$API_S3_PORT" fresh
@@ -65,29 +74,43 @@ api_suite() {
   tsx_server scripts/db.ts seed-if-empty >/dev/null
   node --import tsx --test --test-concurrency=1 --test-reporter=spec $(find tests/api -name "*.test.ts" | sort)
 }
-api_log="$(pg_datadir test)/api-suite.log"
-log "Suite: api (supertest on PostgreSQL), beside the others; output below when they end"
-( api_suite ) >"$api_log" 2>&1 &
+rm -f "$logs/checks.status"
+log "The API suite, then lint and unit, run beside the browser suite; their output follows it"
+( api_suite ) >"$logs/api-suite.log" 2>&1 &
 api_pid=$!
-
-rm -f tests/artifacts/door-card-ocr.txt
-suite "unit (shared computations)" node --import tsx --test --test-reporter=dot $(find tests/unit -name "*.test.ts" | sort)
-# the door-card recognition figures per variant (tests/unit/door-card-ocr.test.ts writes them)
-if [ -f tests/artifacts/door-card-ocr.txt ]; then sed 's/^/  /' tests/artifacts/door-card-ocr.txt; fi
+# the type check first, before a web build can write .expo/types under it; the two projects at
+# once (two cores, and neither waits for the other)
+log "Suite: type check (client and server)"
+typecheck_status=0
+bash -c 'tsc --noEmit -p . & client=$!; tsc --noEmit -p server; server=$?; wait "$client" && [ "$server" -eq 0 ]' || typecheck_status=$?
+record "type check (client and server)" "$typecheck_status"
+( checks ) >"$logs/checks.log" 2>&1 &
+checks_pid=$!
 
 ensure_web_build
-PORT="$E2E_PORT" HOST=127.0.0.1 SIGN_IN_LIMIT=1000 tsx server/index.ts >"$(pg_datadir test)/e2e-server.log" 2>&1 &
+PORT="$E2E_PORT" HOST=127.0.0.1 SIGN_IN_LIMIT=1000 tsx server/index.ts >"$logs/e2e-server.log" 2>&1 &
 server_pid=$!
 for _ in $(seq 1 60); do curl -sf "http://127.0.0.1:$E2E_PORT/api/health" >/dev/null && break; sleep 0.5; done
 mkdir -p tests/artifacts
-suite "browser (Playwright + Chromium)" env E2E_BASE_URL="http://127.0.0.1:$E2E_PORT" playwright test
+log "Suite: browser (Playwright + Chromium)"
+browser_status=0
+env E2E_BASE_URL="http://127.0.0.1:$E2E_PORT" playwright test || browser_status=$?
 
-log "Suite: api (supertest on PostgreSQL), its output"
+log "Suites beside it: lint, unit"
+wait "$checks_pid" || true
+checks_pid=""
+cat "$logs/checks.log"
+for name in "lint (eslint)" "unit (shared computations)"; do
+  status="$(grep -F "$name|" "$logs/checks.status" 2>/dev/null | tail -1 | cut -d'|' -f2)"
+  record "$name" "${status:-1}"
+done
+record "browser (Playwright + Chromium)" "$browser_status"
+log "Suite beside it: api (supertest on PostgreSQL)"
 api_status=0
 wait "$api_pid" || api_status=$?
 api_pid=""
-cat "$api_log"
-if [ "$api_status" -eq 0 ]; then summary+=("passed  api (supertest on PostgreSQL)"); else summary+=("FAILED  api (supertest on PostgreSQL)"); failed=$((failed + 1)); fi
+cat "$logs/api-suite.log"
+record "api (supertest on PostgreSQL)" "$api_status"
 
 echo
 printf '%s\n' "${summary[@]}"
