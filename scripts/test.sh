@@ -54,11 +54,15 @@ export TSX_TSCONFIG_PATH=server/tsconfig.json
 logs="$(pg_datadir test)"
 
 # The browser suite is most of the time, and mostly waits on the page; everything else runs beside
-# it so the two cores stay busy: lint then unit, and the API suite on a cluster, fake S3 and inbox of its own (its restart test stops its own cluster, its
-# e-mail tests read its own inbox). Their output is printed when the browser suite ends.
+# it so the two cores stay busy: type check, lint and unit one after another, and the API suite on
+# a cluster, fake S3 and inbox of its own (its restart test stops its own cluster, its e-mail tests
+# read its own inbox). Their output is printed when the browser suite ends.
 checks() {
   local status=0
-  eslint . || status=$?
+  # the two projects at once: two cores, and neither waits for the other
+  bash -c 'tsc --noEmit -p . & client=$!; tsc --noEmit -p server; server=$?; wait "$client" && [ "$server" -eq 0 ]' || status=$?
+  echo "type check (client and server)|$status" >>"$logs/checks.status"
+  status=0; eslint . || status=$?
   echo "lint (eslint)|$status" >>"$logs/checks.status"
   rm -f tests/artifacts/door-card-ocr.txt
   status=0; node --import tsx --test --test-reporter=dot $(find tests/unit -name "*.test.ts" | sort) || status=$?
@@ -75,19 +79,15 @@ api_suite() {
   node --import tsx --test --test-concurrency=1 --test-reporter=spec $(find tests/api -name "*.test.ts" | sort)
 }
 rm -f "$logs/checks.status"
-log "The API suite, then lint and unit, run beside the browser suite; their output follows it"
+log "The API suite, and the type check, lint and unit, run beside the browser suite; their output follows it"
 ( api_suite ) >"$logs/api-suite.log" 2>&1 &
 api_pid=$!
-# the type check first, before a web build can write .expo/types under it; the two projects at
-# once (two cores, and neither waits for the other)
-log "Suite: type check (client and server)"
-typecheck_status=0
-bash -c 'tsc --noEmit -p . & client=$!; tsc --noEmit -p server; server=$?; wait "$client" && [ "$server" -eq 0 ]' || typecheck_status=$?
-record "type check (client and server)" "$typecheck_status"
+# the web build before the checks start, so that it cannot write .expo/types under the type check
+# (in a warm clone it is only a hash check)
+ensure_web_build
 ( checks ) >"$logs/checks.log" 2>&1 &
 checks_pid=$!
 
-ensure_web_build
 PORT="$E2E_PORT" HOST=127.0.0.1 SIGN_IN_LIMIT=1000 tsx server/index.ts >"$logs/e2e-server.log" 2>&1 &
 server_pid=$!
 for _ in $(seq 1 60); do curl -sf "http://127.0.0.1:$E2E_PORT/api/health" >/dev/null && break; sleep 0.5; done
@@ -96,11 +96,11 @@ log "Suite: browser (Playwright + Chromium)"
 browser_status=0
 env E2E_BASE_URL="http://127.0.0.1:$E2E_PORT" playwright test || browser_status=$?
 
-log "Suites beside it: lint, unit"
+log "Suites beside it: type check, lint, unit"
 wait "$checks_pid" || true
 checks_pid=""
 cat "$logs/checks.log"
-for name in "lint (eslint)" "unit (shared computations)"; do
+for name in "type check (client and server)" "lint (eslint)" "unit (shared computations)"; do
   status="$(grep -F "$name|" "$logs/checks.status" 2>/dev/null | tail -1 | cut -d'|' -f2)"
   record "$name" "${status:-1}"
 done
