@@ -12,6 +12,7 @@ import { ArcFlashLabel1765440000000 } from './migrations/1765440000000-arc-flash
 import { ReplayGuardPerUser1765420000000 } from './migrations/1765420000000-replay-guard-per-user';
 import { Judgements1765413000000 } from './migrations/1765413000000-judgements';
 import { PanelChecks1765430000000 } from './migrations/1765430000000-panel-checks';
+import { FieldMetaLz41765450000000 } from './migrations/1765450000000-field-meta-lz4';
 
 export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
   return new DataSource({
@@ -29,6 +30,7 @@ export function makeDataSource(url = readConfig().DATABASE_URL): DataSource {
       ReplayGuardPerUser1765420000000,
       PanelChecks1765430000000,
       ArcFlashLabel1765440000000,
+      FieldMetaLz41765450000000,
     ],
     synchronize: false,
     logging: false,

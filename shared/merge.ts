@@ -147,7 +147,7 @@ export function sameValue(a: unknown, b: unknown): boolean {
 export function decideWrite(
   meta: FieldMeta,
   write: FieldWrite,
-  row: Record<string, unknown> = {},
+  row: object = {},
   groups: readonly (readonly string[])[] = FIELD_GROUPS,
 ): UnitDecision[] {
   const written = Object.keys(write.fields).filter((f) => write.fields[f] !== undefined);
@@ -157,7 +157,7 @@ export function decideWrite(
     const outcome: MergeOutcome =
       !stored || write.hlc > stored.hlc ? 'apply' : write.hlc === stored.hlc ? 'same' : 'lose';
     const concurrent = isConcurrent(stored, write);
-    const differs = fields.some((f) => f in write.fields && !sameValue(write.fields[f], row[f]));
+    const differs = fields.some((f) => f in write.fields && !sameValue(write.fields[f], Reflect.get(row, f)));
     const droppedUnseen =
       (outcome === 'apply' && concurrent) ||
       (outcome === 'lose' && stored !== undefined && stored.device !== write.device);
@@ -165,13 +165,44 @@ export function decideWrite(
   });
 }
 
-/** The result of merging one write into a row. */
-export interface MergeResult<R> {
-  row: R;
+/** What a write does to a row's stamps: the decisions, the new field_meta and the fields that won. */
+export interface StampResult {
   meta: FieldMeta;
   decisions: UnitDecision[];
   /** fields whose value or stamp changed */
   applied: string[];
+}
+
+/** The result of merging one write into a row. */
+export interface MergeResult<R> extends StampResult {
+  row: R;
+}
+
+/**
+ * The stamps half of mergeWrite, without copying the row (the server merges thousands of rows a
+ * push and writes the winning values itself): a new field_meta, inputs unchanged. `row` gives the
+ * current values, used only to tell a real conflict from two equal values.
+ */
+export function mergeStamps(
+  row: object,
+  meta: FieldMeta,
+  write: FieldWrite,
+  stamp: { version: number; user?: string | null },
+  groups: readonly (readonly string[])[] = FIELD_GROUPS,
+): StampResult {
+  const nextMeta: FieldMeta = { ...meta };
+  const decisions = decideWrite(meta, write, row, groups);
+  const applied: string[] = [];
+  for (const d of decisions) {
+    if (d.outcome !== 'apply') continue;
+    for (const f of d.fields) {
+      const entry: FieldStamp = { hlc: write.hlc, version: stamp.version, device: write.device };
+      if (stamp.user !== undefined) entry.user = stamp.user;
+      nextMeta[f] = entry;
+      applied.push(f);
+    }
+  }
+  return { meta: nextMeta, decisions, applied };
 }
 
 /**
@@ -187,19 +218,10 @@ export function mergeWrite<R extends Record<string, unknown>>(
   stamp: { version: number; user?: string | null },
   groups: readonly (readonly string[])[] = FIELD_GROUPS,
 ): MergeResult<R> {
+  const result = mergeStamps(row, meta, write, stamp, groups);
   const nextRow: Record<string, unknown> = { ...row };
-  const nextMeta: FieldMeta = { ...meta };
-  const decisions = decideWrite(meta, write, row, groups);
-  const applied: string[] = [];
-  for (const d of decisions) {
-    if (d.outcome !== 'apply') continue;
-    for (const f of d.fields) {
-      if (f in write.fields && write.fields[f] !== undefined) nextRow[f] = write.fields[f];
-      const entry: FieldStamp = { hlc: write.hlc, version: stamp.version, device: write.device };
-      if (stamp.user !== undefined) entry.user = stamp.user;
-      nextMeta[f] = entry;
-      applied.push(f);
-    }
+  for (const f of result.applied) {
+    if (f in write.fields && write.fields[f] !== undefined) nextRow[f] = write.fields[f];
   }
-  return { row: nextRow as R, meta: nextMeta, decisions, applied };
+  return { ...result, row: nextRow as R };
 }

@@ -102,29 +102,18 @@ export class VersionBook {
   }
 
   /**
-   * Lock buildings in id order, then bump each once. A push calls this before applying anything,
-   * so two pushes over the same buildings queue up instead of deadlocking, and no bump happens
-   * inside a savepoint that a rejected mutation rolls back.
+   * Take the buildings a push locked and bumped before applying anything (server/sync/push.ts,
+   * lockBuildings: in id order, so two pushes over the same buildings queue up instead of
+   * deadlocking, and no bump happens inside a savepoint that a rejected mutation rolls back).
    */
-  async lockAll(buildingIds: readonly string[], organisationIds: readonly string[]): Promise<void> {
-    const todo = [...new Set(buildingIds)].filter((id) => !this.versions.has(id));
-    if (todo.length === 0 || organisationIds.length === 0) return;
-    // one statement: the subquery takes the row locks in id order, the update bumps what it locked;
-    // only buildings of the given organisations, so nobody can hold another's buildings
-    const [rows]: [{ id: string; organisation_id: string; version: string }[], number] = await this.em.query(
-      `UPDATE building SET version = version + 1
-        WHERE id IN (SELECT id FROM building WHERE id = ANY($1::uuid[]) AND organisation_id = ANY($2::uuid[])
-                      ORDER BY id FOR UPDATE)
-        RETURNING id, organisation_id, version`,
-      [todo, organisationIds],
-    );
+  adopt(rows: readonly { id: string; organisation_id: string; version: string | number }[]): void {
     for (const row of rows) {
       this.versions.set(row.id, Number(row.version));
       this.homes.set(row.id, { id: row.id, organisationId: row.organisation_id });
     }
   }
 
-  /** Organisation of a building this book locked with lockAll (it never changes). */
+  /** Organisation of a building this book adopted from the push's lock (it never changes). */
   home(buildingId: string): { id: string; organisationId: string } | undefined {
     return this.homes.get(buildingId);
   }

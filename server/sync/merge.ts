@@ -1,5 +1,5 @@
 import { IsNull, type EntityManager, type EntityTarget, type FindOptionsWhere } from 'typeorm';
-import { mergeWrite, type FieldStamp, type MergeResult } from '../../shared/merge';
+import { mergeStamps, type FieldStamp, type StampResult } from '../../shared/merge';
 import type { SyncColumns } from '../entities/sync-columns';
 import { AppError } from '../http/errors';
 import { updateRows } from '../services/bulk';
@@ -14,7 +14,7 @@ import type { WriteContext } from './context';
 
 interface MergePlan<T> {
   fields: Record<string, unknown>;
-  result: MergeResult<Record<string, unknown>>;
+  result: StampResult;
   /** the row as it would be stored, for validation before anything changes */
   candidate: T;
   applied: string[];
@@ -32,8 +32,8 @@ export function planMerge<T extends SyncColumns>(
   w: WriteContext,
   version: number,
 ): MergePlan<T> {
-  const result = mergeWrite(
-    Object.fromEntries(Object.entries(row)),
+  const result = mergeStamps(
+    row,
     row.fieldMeta ?? {},
     { hlc: w.hlc, device: w.device, fields, baseVersion: w.sync?.baseVersion },
     { version, user: w.actor.userId },
@@ -53,7 +53,9 @@ export function commitMerge<T extends SyncColumns>(
   version: number,
   target: Target | null,
 ): ConflictDraft[] {
-  const before = { ...row };
+  const conflicts = target ? plan.result.decisions.filter((d) => d.conflict) : [];
+  // the values the conflicts lost, read before the winners overwrite them
+  const before = conflicts.length > 0 ? { ...row } : row;
   Object.assign(row, winners(plan.fields, plan.applied));
   row.fieldMeta = plan.result.meta;
   row.version = String(version);
@@ -62,9 +64,7 @@ export function commitMerge<T extends SyncColumns>(
     row.updatedBy = w.actor.userId;
   }
   if (!target) return [];
-  return plan.result.decisions
-    .filter((d) => d.conflict)
-    .map((d) => concurrentDraft(d, before, plan.fields, w, target, row.id));
+  return conflicts.map((d) => concurrentDraft(d, before, plan.fields, w, target, row.id));
 }
 
 /** Fields of a new row: everything applies; the stamps go to field_meta. */

@@ -49,6 +49,9 @@ import { pullPages } from './pull';
  * Pull: server/sync/pull.ts (one REPEATABLE READ transaction, pages cut by row).
  */
 
+/** The answer to a mutation another push has claimed but not yet committed. */
+const STILL_PROCESSING: StoredResult = { status: 'rejected', version: 0, reason: 'still being processed' };
+
 class Push {
   readonly results: MutationResult[] = [];
   /** answers recorded so far for this device: before this push, and by it */
@@ -83,19 +86,37 @@ class Push {
 
   /**
    * Lock and bump, in id order, the buildings this push may change, skipping mutations answered
-   * before (read before the locks: a batch that then loses a claim re-reads, see batch()).
+   * before. One statement: the answers already recorded for this device are read first (from the
+   * statement's snapshot, before any lock: a batch that then loses a claim re-reads, see batch()),
+   * and only the buildings of mutations not answered yet are locked and bumped, so a replayed push
+   * bumps nothing. Only buildings of the user's organisations (every role writes something: owners
+   * defer and comment, inspectors record); a mutation the role may not make is rejected later.
    */
   async lockBuildings(prepared: Prepared[]): Promise<void> {
     const valid = prepared.filter((p): p is Extract<Prepared, { ok: true }> => p.ok);
     if (valid.length === 0) return;
-    const done = await this.stored(valid.map((p) => p.id));
-    for (const [id, result] of done) this.known.set(id, result);
-    const replayed = new Set(done.keys());
-    const claimed = [...new Set(valid.filter((p) => !replayed.has(p.id)).map((p) => p.mutation.buildingId))];
-    if (claimed.length === 0) return;
-    // only buildings of the user's organisations (every role writes something: owners defer and
-    // comment, inspectors record); a mutation the role may not make is rejected after the lock
-    await this.versions.lockAll(claimed, [...this.actor.roles.keys()]);
+    const rows: { answered: boolean; id: string; result: StoredResult | null; organisation_id: string; version: string }[] =
+      await this.em.query(
+        `WITH done AS (
+           SELECT mutation_id, result FROM processed_mutation
+            WHERE user_id = $3 AND device_id = $1 AND mutation_id = ANY($2::uuid[])
+         ), wanted AS (
+           SELECT m.b FROM unnest($2::uuid[], $4::uuid[]) AS m(id, b)
+            WHERE NOT EXISTS (SELECT 1 FROM done WHERE done.mutation_id = m.id)
+         ), locked AS (
+           UPDATE building SET version = version + 1
+            WHERE id IN (SELECT id FROM building
+                          WHERE id IN (SELECT b FROM wanted) AND organisation_id = ANY($5::uuid[])
+                          ORDER BY id FOR UPDATE)
+           RETURNING id, organisation_id, version
+         )
+         SELECT true AS answered, mutation_id AS id, result, NULL::uuid AS organisation_id, NULL::bigint AS version FROM done
+         UNION ALL
+         SELECT false, id, NULL, organisation_id, version FROM locked`,
+        [this.deviceId, valid.map((p) => p.id), this.actor.userId, valid.map((p) => p.mutation.buildingId), [...this.actor.roles.keys()]],
+      );
+    for (const row of rows) if (row.answered) this.known.set(row.id, row.result ?? STILL_PROCESSING);
+    this.versions.adopt(rows.filter((row) => !row.answered));
   }
 
   /** Apply every mutation in order; runs of patches of one kind as one batch. */
@@ -133,8 +154,7 @@ class Push {
         WHERE user_id = $3 AND device_id = $1 AND mutation_id = ANY($2::uuid[])`,
       [this.deviceId, ids, this.actor.userId],
     );
-    const pending: StoredResult = { status: 'rejected', version: 0, reason: 'still being processed' };
-    return new Map(rows.map((r) => [r.mutation_id, r.result ?? pending]));
+    return new Map(rows.map((r) => [r.mutation_id, r.result ?? STILL_PROCESSING]));
   }
 
   private async record(results: { id: string; result: StoredResult }[]): Promise<void> {

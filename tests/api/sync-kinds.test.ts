@@ -15,12 +15,15 @@ import { demoIds, stamp, startApp, type TestContext } from './context';
 let ctx: TestContext;
 let ids: Awaited<ReturnType<typeof demoIds>>;
 let inspector: Actor;
+let electrician: Actor;
 
 before(async () => {
   ctx = await startApp();
   ids = await demoIds(ctx.ds);
   const [row] = await ctx.ds.query(`SELECT id FROM app_user WHERE email = 'inspector@ampwright.test'`);
   inspector = await loadActor(ctx.ds.manager, row.id);
+  const [sparky] = await ctx.ds.query(`SELECT id FROM app_user WHERE email = 'electrician@ampwright.test'`);
+  electrician = await loadActor(ctx.ds.manager, sparky.id);
 });
 after(() => ctx.close());
 
@@ -28,20 +31,25 @@ function m(name: Mutation['name'], entityId: string, fields: Record<string, unkn
   return { id: uuidv7(), name, buildingId: ids.clinicId, entityId, baseVersion, hlc: stamp('kinds'), fields };
 }
 
-/** Apply a push in its own transaction and count the statements it sent. */
-async function countedPush(mutations: Mutation[]): Promise<{ body: PushResponse; statements: number }> {
+/** Apply a push in its own transaction and count the statements it sent (and list them). */
+async function countedPush(
+  mutations: Mutation[],
+  actor = inspector,
+): Promise<{ body: PushResponse; statements: number; sent: string[] }> {
   const runner = ctx.ds.createQueryRunner();
   let statements = 0;
+  const sent: string[] = [];
   const query = runner.query.bind(runner);
   runner.query = ((...args: Parameters<typeof query>) => {
     statements++;
+    sent.push(String(args[0]).replace(/\s+/g, ' ').trim().slice(0, 60));
     return query(...args);
   }) as typeof runner.query;
   try {
     await runner.startTransaction();
-    const body = await applyPush(runner.manager, inspector, { deviceId: 'kinds', schemaVersion: SCHEMA_VERSION, mutations });
+    const body = await applyPush(runner.manager, actor, { deviceId: 'kinds', schemaVersion: SCHEMA_VERSION, mutations });
     await runner.commitTransaction();
-    return { body, statements };
+    return { body, statements, sent };
   } catch (error) {
     await runner.rollbackTransaction();
     throw error;
@@ -101,5 +109,53 @@ describe('a run of record patches merges set-wise', () => {
     assert.match(body.results[1].reason ?? '', /Inspectors cannot mark a repair done/);
     const [moved] = await ctx.ds.query(`SELECT priority, due_on FROM deficiency WHERE id = $1`, [made[2]]);
     assert.equal(moved.priority, 1);
+  });
+});
+
+/** The clinic's version: a device that has pulled everything edits from it (no conflict). */
+async function buildingVersion(): Promise<number> {
+  const [row] = await ctx.ds.query(`SELECT version FROM building WHERE id = $1`, [ids.clinicId]);
+  return Number(row.version);
+}
+
+describe('a push goes to the database in few round trips', () => {
+  it('a run of circuit patches: the replay read with the building lock, the savepoint, the merge, the claim, its release', async () => {
+    const circuits = await Promise.all([3, 5, 7, 9].map((position) => ids.circuitAt(ids.clinicLAId, position)));
+    const seen = await buildingVersion();
+    const run = circuits.map((id, i) => m('circuit.patch', id, { notes: `Round trip ${i}` }, seen));
+    const first = await countedPush(run, electrician);
+    assert.deepEqual(first.body.results.map((r) => r.status), ['applied', 'applied', 'applied', 'applied']);
+    // and START TRANSACTION and COMMIT around them (the replay read was a statement of its own)
+    assert.equal(first.statements, 7, first.sent.join('\n'));
+    // the same push again: every one a duplicate, and the building is neither locked nor bumped
+    const before = await buildingVersion();
+    const again = await countedPush(run, electrician);
+    assert.deepEqual(again.body.results.map((r) => r.status), ['duplicate', 'duplicate', 'duplicate', 'duplicate']);
+    assert.equal(await buildingVersion(), before);
+  });
+});
+
+describe('storage', () => {
+  it('every synced table compresses its field stamps with lz4, and a merged row is stored so', async () => {
+    // field_meta is rewritten (and so compressed again) by every merge: lz4 does it several times
+    // faster than PostgreSQL's default pglz
+    const columns: { table_name: string; method: string }[] = await ctx.ds.query(
+      `SELECT c.relname AS table_name, a.attcompression AS method
+         FROM pg_attribute a JOIN pg_class c ON c.oid = a.attrelid JOIN pg_namespace n ON n.oid = c.relnamespace
+        WHERE a.attname = 'field_meta' AND c.relkind = 'r' AND n.nspname = current_schema()
+        ORDER BY 1`,
+    );
+    assert.ok(columns.length >= 10, `synced tables: ${columns.map((c) => c.table_name).join(', ')}`);
+    assert.deepEqual(columns.filter((c) => c.method !== 'l'), [], 'tables whose field_meta is not lz4');
+    const id = await ids.circuitAt(ids.clinicLAId, 11);
+    const { body } = await countedPush([m('circuit.patch', id, { notes: 'Stored with lz4' }, await buildingVersion())], electrician);
+    assert.equal(body.results[0].status, 'applied');
+    const [row] = await ctx.ds.query(
+      `SELECT pg_column_compression(field_meta) AS method, octet_length(field_meta::text) AS length FROM circuit WHERE id = $1`,
+      [id],
+    );
+    // a demo circuit carries a stamp for each of its fields: well past the 2 kB where PostgreSQL compresses
+    assert.ok(row.length > 1000, `field_meta of ${row.length} characters`);
+    assert.equal(row.method, 'lz4');
   });
 });

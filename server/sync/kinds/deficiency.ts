@@ -55,12 +55,12 @@ export async function addEntry(
 /** One history line per write: which fields went from what to what. */
 async function recordChange(c: RecordCtx, row: Deficiency, before: Deficiency | null, applied: string[]) {
   const changes: Record<string, [unknown, unknown]> = {};
-  const was = new Map(Object.entries(before ?? {}));
-  const now = new Map(Object.entries(row));
   for (const f of applied) {
     if (f === 'deletedAt') continue;
-    if (before && was.get(f) === now.get(f)) continue;
-    changes[f] = [before ? (was.get(f) ?? null) : null, now.get(f) ?? null];
+    const was: unknown = before ? Reflect.get(before, f) : undefined;
+    const now: unknown = Reflect.get(row, f);
+    if (before && was === now) continue;
+    changes[f] = [before ? (was ?? null) : null, now ?? null];
   }
   if (Object.keys(changes).length === 0) return;
   await addEntry(c, row.id, { kind: 'change', text: before ? '' : 'raised', changes });
