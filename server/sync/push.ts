@@ -235,6 +235,19 @@ class Push {
   }
 
   /**
+   * The answers a plan stored as final in its own statement are `applied` at the building's
+   * version; anything else means the plan and the kernel disagree, and the batch is replayed one
+   * by one (batch()).
+   */
+  private checkFinal(stored: { id: string; result: StoredResult }[]): void {
+    for (const { id, result } of stored) {
+      if (result.status !== 'applied' || result.conflictIds || result.reason) {
+        throw new Error(`the plan stored mutation ${id} as applied, but its answer is ${result.status}`);
+      }
+    }
+  }
+
+  /**
    * A run of patches of one kind in one savepoint. Should another push claim one of its mutation ids
    * meanwhile (possible only for an id reused in another building, since pushes to one building
    * queue on its lock), the batch is rolled back and planned again, which then answers that one
@@ -298,10 +311,19 @@ class Push {
     });
     const fresh = run.flatMap((p, index) => {
       const result = answers[index];
-      return result ? [{ id: p.id, result }] : [];
+      return result ? [{ id: p.id, index, result }] : [];
     });
-    const claimed = await this.claimWithResults(fresh);
-    if (claimed.size < fresh.length) return null;
+    // what the plan claimed in its own statement (kinds/types.ts PatchPlan.claims), and what is left
+    // to claim (malformed mutations) or to record (answers the plan could not know in SQL)
+    const inPlan = new Map(work.map((x, k) => [x.index, k]));
+    const claims = plan.claims;
+    if (claims && claims.claimed < work.length) return null;
+    const toClaim = claims ? fresh.filter((f) => !inPlan.has(f.index)) : fresh;
+    const toRecord = claims ? fresh.filter((f) => inPlan.has(f.index) && !claims.final[inPlan.get(f.index)!]) : [];
+    if (claims) this.checkFinal(fresh.filter((f) => inPlan.has(f.index) && claims.final[inPlan.get(f.index)!]));
+    const claimed = await this.claimWithResults(toClaim);
+    if (claimed.size < toClaim.length) return null;
+    await this.record(toRecord);
     await plan.persist();
     for (const { id, result } of fresh) this.known.set(id, result);
     return run.map((p, index) => {

@@ -52,7 +52,9 @@ export function canMergeSetwise(items: readonly CircuitPatchItem[]): boolean {
 }
 
 interface SetwiseDecision {
+  /** the item; -1 for the one row that counts the claims */
   k: number;
+  claimed: string | null;
   f: string;
   found: boolean;
   deleted_at: Date | null;
@@ -90,8 +92,8 @@ export async function mergeCircuitPatchesSetwise(
     return column;
   });
   // parameters: $1–$8 the writes as typed arrays (one element per field write), $9 circuit ids,
-  // $10 device, $11 user, then one per field name
-  const name = (i: number) => `$${12 + i}::text`;
+  // $10 device, $11 user, $12–$14 the claims (item, mutation id, version), then one per field name
+  const name = (i: number) => `$${15 + i}::text`;
   const pick = columns.map((c) => `"${c.databaseName}"`).join(', ');
   const whens = columns.map((c, i) => `WHEN ${name(i)} THEN to_jsonb(cur."${c.databaseName}")`);
   const oldValue = `CASE w.f ${whens.join(' ')} END`;
@@ -138,19 +140,35 @@ export async function mergeCircuitPatchesSetwise(
              updated_by = CASE WHEN a.last_hlc IS NULL THEN t.updated_by ELSE $11::uuid END
         FROM a WHERE t.id = a.id
       RETURNING t.id
+    ), review AS (
+      -- only the decisions that need a second look: a missing or deleted row, or a stored stamp from
+      -- another device that this write either overwrote unseen or lost to (shared/merge.ts decides)
+      SELECT k, f, found, deleted_at, stored, deletion, row_updated_at, row_updated_by, old, wins FROM d
+       WHERE NOT found OR deleted_at IS NOT NULL
+          OR (stored IS NOT NULL AND stored ->> 'device' <> $10::text
+              AND ((wins AND (stored ->> 'version')::bigint > bv) OR (NOT wins AND h <> stored ->> 'hlc')))
+    ), claimed AS (
+      -- the mutations' ids, claimed for this device (a replay arriving later is a duplicate): an item
+      -- with nothing to review is applied at its building's version, the others' answers the push
+      -- records once shared/merge.ts has decided them
+      INSERT INTO processed_mutation (device_id, mutation_id, user_id, result)
+      SELECT $10::text, c.m, $11::uuid,
+             CASE WHEN c.k IN (SELECT k FROM review) THEN NULL
+                  ELSE jsonb_build_object('status', 'applied', 'version', c.ver) END
+        FROM unnest($12::int[], $13::uuid[], $14::bigint[]) AS c(k, m, ver)
+      ON CONFLICT DO NOTHING RETURNING 1
     )
-    -- only the decisions that need a second look: a missing or deleted row, or a stored stamp from
-    -- another device that this write either overwrote unseen or lost to (shared/merge.ts decides)
-    SELECT k, f, found, deleted_at, stored, deletion, row_updated_at, row_updated_by, old, wins FROM d
-     WHERE NOT found OR deleted_at IS NOT NULL
-        OR (stored IS NOT NULL AND stored ->> 'device' <> $10::text
-            AND ((wins AND (stored ->> 'version')::bigint > bv) OR (NOT wins AND h <> stored ->> 'hlc')))`;
+    SELECT k, f, found, deleted_at, stored, deletion, row_updated_at, row_updated_by, old, wins, NULL::bigint AS claimed
+      FROM review
+    UNION ALL
+    -- one more row, always there: how many ids were claimed
+    SELECT -1, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL, (SELECT count(*) FROM claimed)`;
   const writes = items.flatMap((item, k) =>
     Object.entries(item.patch)
       .filter(([, v]) => v !== undefined)
       .map(([f, v]) => ({ k, item, f, v })),
   );
-  const decisions: SetwiseDecision[] = await em.query(sql, [
+  const answer: SetwiseDecision[] = await em.query(sql, [
     writes.map((x) => x.k),
     writes.map((x) => x.item.id),
     writes.map((x) => x.item.w.sync!.buildingId),
@@ -162,8 +180,13 @@ export async function mergeCircuitPatchesSetwise(
     items.map((i) => i.id),
     device,
     actor.userId,
+    items.map((_, k) => k),
+    items.map((i) => i.w.sync!.mutationId),
+    items.map((i) => versions.peek(i.w.sync!.buildingId)),
     ...fields,
   ]);
+  const decisions = answer.filter((d) => d.k >= 0);
+  const claimed = Number(answer.find((d) => d.k < 0)?.claimed ?? 0);
 
   const byItem = new Map<number, SetwiseDecision[]>();
   for (const d of decisions) byItem.set(d.k, [...(byItem.get(d.k) ?? []), d]);
@@ -203,6 +226,10 @@ export async function mergeCircuitPatchesSetwise(
     return { ok: true, row: null, version };
   });
   reportConflicts(drafts);
-  return { outcomes, persist: () => insertConflicts(em, drafts) };
+  return {
+    outcomes,
+    claims: { claimed, final: items.map((_, k) => !byItem.has(k)) },
+    persist: () => insertConflicts(em, drafts),
+  };
 }
 

@@ -25,6 +25,13 @@ export type ItemOutcome<T> = { ok: true; row: T; version: number } | { ok: false
 /** A planned run: every outcome is known (conflict ids included) before `persist` writes it. */
 export interface PatchPlan<T = unknown> {
   outcomes: ItemOutcome<T>[];
+  /**
+   * Set when the plan already claimed its items' mutation ids (`w.sync.mutationId`) in
+   * processed_mutation, in the statement that merged them: how many it claimed (fewer than the items
+   * when another push got one first), and per item whether the answer it stored is final (`applied`
+   * at the push's version of the building) or left empty for the kernel to record.
+   */
+  claims?: { claimed: number; final: boolean[] };
   persist(): Promise<void>;
 }
 
