@@ -19,6 +19,7 @@ import {
 import { MUTATION_HANDLERS, PATCH_PLANNERS, plansRuns } from './kinds';
 import type { PatchItem, PatchPlan } from './kinds/types';
 import { pullPages } from './pull';
+import { byClaim, checkFinal, ReplayRecord, STILL_PROCESSING } from './replays';
 
 /**
  * The server side of offline sync (SYNC.md).
@@ -40,7 +41,8 @@ import { pullPages } from './pull';
  *   per-mutation results come from the same shared/merge.ts rule;
  * - any other run is read under the building locks and merged and validated in memory, in order,
  *   then written with one UPDATE … FROM unnest (kinds/circuit-batch.ts, kinds/record.ts).
- * Either way one statement then claims all the run's ids with their results. Same per-mutation
+ * Either way one statement then claims all the run's ids with their results (for the free-field
+ * circuit run, the merge statement itself: PatchPlan.claims). Same per-mutation
  * results, idempotency and conflicts as the one-by-one path; if a claim is lost (only possible for
  * an id reused across buildings, since pushes to one building queue on its lock) the batch is
  * rolled back and planned again, and on a database error it is replayed one mutation per
@@ -49,14 +51,12 @@ import { pullPages } from './pull';
  * Pull: server/sync/pull.ts (one REPEATABLE READ transaction, pages cut by row).
  */
 
-/** The answer to a mutation another push has claimed but not yet committed. */
-const STILL_PROCESSING: StoredResult = { status: 'rejected', version: 0, reason: 'still being processed' };
-
 class Push {
   readonly results: MutationResult[] = [];
   /** answers recorded so far for this device: before this push, and by it */
   private readonly known = new Map<string, StoredResult>();
   readonly versions: VersionBook;
+  private readonly replays: ReplayRecord;
   private readonly now = Date.now();
 
   constructor(
@@ -65,6 +65,7 @@ class Push {
     private readonly deviceId: string,
   ) {
     this.versions = new VersionBook(em);
+    this.replays = new ReplayRecord(em, deviceId, actor.userId);
   }
 
   private context(mutation: Mutation): WriteContext {
@@ -135,38 +136,6 @@ class Push {
     }
   }
 
-  private async claim(ids: string[]): Promise<Set<string>> {
-    // the first statement of every mutation: a replay (or a concurrent push of the same mutation,
-    // which waits here until the other commits) inserts nothing and is answered from the record
-    const rows: { mutation_id: string }[] = await this.em.query(
-      `INSERT INTO processed_mutation (device_id, mutation_id, user_id)
-       SELECT $1, m, $3 FROM unnest($2::uuid[]) AS m
-       ON CONFLICT DO NOTHING RETURNING mutation_id`,
-      [this.deviceId, ids, this.actor.userId],
-    );
-    return new Set(rows.map((r) => r.mutation_id));
-  }
-
-  private async stored(ids: string[]): Promise<Map<string, StoredResult>> {
-    const rows: { mutation_id: string; result: StoredResult | null }[] = await this.em.query(
-      // only this account's records: another account's result for the same pair is not ours to read
-      `SELECT mutation_id, result FROM processed_mutation
-        WHERE user_id = $3 AND device_id = $1 AND mutation_id = ANY($2::uuid[])`,
-      [this.deviceId, ids, this.actor.userId],
-    );
-    return new Map(rows.map((r) => [r.mutation_id, r.result ?? STILL_PROCESSING]));
-  }
-
-  private async record(results: { id: string; result: StoredResult }[]): Promise<void> {
-    if (results.length === 0) return;
-    await this.em.query(
-      `UPDATE processed_mutation AS p SET result = v.result
-         FROM jsonb_to_recordset($2::jsonb) AS v(mutation_id uuid, result jsonb)
-        WHERE p.user_id = $3 AND p.device_id = $1 AND p.mutation_id = v.mutation_id`,
-      [this.deviceId, JSON.stringify(results.map((r) => ({ mutation_id: r.id, result: r.result }))), this.actor.userId],
-    );
-  }
-
   private static duplicate(id: string, stored: StoredResult): MutationResult {
     const { status, ...rest } = stored;
     return { ...rest, id, status: 'duplicate', originalStatus: status as 'applied' | 'conflict' | 'rejected' };
@@ -177,10 +146,10 @@ class Push {
     const saved = this.versions.entries();
     await this.em.query('SAVEPOINT m');
     try {
-      const claimed = await this.claim([p.id]);
+      const claimed = await this.replays.claim([p.id]);
       if (!claimed.has(p.id)) {
         await this.em.query('RELEASE SAVEPOINT m');
-        return Push.duplicate(p.id, (await this.stored([p.id])).get(p.id)!);
+        return Push.duplicate(p.id, (await this.replays.stored([p.id])).get(p.id)!);
       }
       let result: StoredResult;
       if (!p.ok) {
@@ -190,7 +159,7 @@ class Push {
         await apply(w, p);
         result = this.finish(p.mutation, w);
       }
-      await this.record([{ id: p.id, result }]);
+      await this.replays.record([{ id: p.id, result }]);
       await this.em.query('RELEASE SAVEPOINT m');
       this.known.set(p.id, result);
       return { id: p.id, ...result };
@@ -207,43 +176,10 @@ class Push {
         result = { status: 'rejected', version: 0, reason: `the change does not fit the stored data (${error.code})` };
       }
       // a rejection is final too: record it so a replay gets the same answer
-      await this.em.query(
-        `INSERT INTO processed_mutation (device_id, mutation_id, user_id, result) VALUES ($1, $2, $3, $4)
-         ON CONFLICT DO NOTHING`,
-        [this.deviceId, p.id, this.actor.userId, JSON.stringify(result)],
-      );
+      await this.replays.claimWithResults([{ id: p.id, result }]);
       await this.em.query('RELEASE SAVEPOINT m');
       this.known.set(p.id, result);
       return { id: p.id, ...result };
-    }
-  }
-
-  /**
-   * Claim mutation ids and store their results in one statement; returns the ids claimed. Used
-   * by the batch path, which knows every result before it writes anything.
-   */
-  private async claimWithResults(results: { id: string; result: StoredResult }[]): Promise<Set<string>> {
-    if (results.length === 0) return new Set();
-    const rows: { mutation_id: string }[] = await this.em.query(
-      `INSERT INTO processed_mutation (device_id, mutation_id, user_id, result)
-       SELECT $1, v.mutation_id, $2, v.result
-         FROM jsonb_to_recordset($3::jsonb) AS v(mutation_id uuid, result jsonb)
-       ON CONFLICT DO NOTHING RETURNING mutation_id`,
-      [this.deviceId, this.actor.userId, JSON.stringify(results.map((r) => ({ mutation_id: r.id, result: r.result })))],
-    );
-    return new Set(rows.map((r) => r.mutation_id));
-  }
-
-  /**
-   * The answers a plan stored as final in its own statement are `applied` at the building's
-   * version; anything else means the plan and the kernel disagree, and the batch is replayed one
-   * by one (batch()).
-   */
-  private checkFinal(stored: { id: string; result: StoredResult }[]): void {
-    for (const { id, result } of stored) {
-      if (result.status !== 'applied' || result.conflictIds || result.reason) {
-        throw new Error(`the plan stored mutation ${id} as applied, but its answer is ${result.status}`);
-      }
     }
   }
 
@@ -288,7 +224,7 @@ class Push {
     });
     const ids = [...firstIndex.keys()];
     const stored = reread
-      ? await this.stored(ids)
+      ? await this.replays.stored(ids)
       : new Map(ids.filter((id) => this.known.has(id)).map((id) => [id, this.known.get(id)!]));
 
     const answers: (StoredResult | null)[] = run.map(() => null);
@@ -313,17 +249,12 @@ class Push {
       const result = answers[index];
       return result ? [{ id: p.id, index, result }] : [];
     });
-    // what the plan claimed in its own statement (kinds/types.ts PatchPlan.claims), and what is left
-    // to claim (malformed mutations) or to record (answers the plan could not know in SQL)
-    const inPlan = new Map(work.map((x, k) => [x.index, k]));
-    const claims = plan.claims;
-    if (claims && claims.claimed < work.length) return null;
-    const toClaim = claims ? fresh.filter((f) => !inPlan.has(f.index)) : fresh;
-    const toRecord = claims ? fresh.filter((f) => inPlan.has(f.index) && !claims.final[inPlan.get(f.index)!]) : [];
-    if (claims) this.checkFinal(fresh.filter((f) => inPlan.has(f.index) && claims.final[inPlan.get(f.index)!]));
-    const claimed = await this.claimWithResults(toClaim);
+    if (plan.claims && plan.claims.claimed < work.length) return null;
+    const { toClaim, toRecord, final } = byClaim(fresh, work.map((x) => x.index), plan.claims);
+    checkFinal(final);
+    const claimed = await this.replays.claimWithResults(toClaim);
     if (claimed.size < toClaim.length) return null;
-    await this.record(toRecord);
+    await this.replays.record(toRecord);
     await plan.persist();
     for (const { id, result } of fresh) this.known.set(id, result);
     return run.map((p, index) => {
