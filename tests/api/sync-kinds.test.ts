@@ -125,8 +125,8 @@ describe('a push goes to the database in few round trips', () => {
     const run = circuits.map((id, i) => m('circuit.patch', id, { notes: `Round trip ${i}` }, seen));
     const first = await countedPush(run, electrician);
     assert.deepEqual(first.body.results.map((r) => r.status), ['applied', 'applied', 'applied', 'applied']);
-    // and START TRANSACTION and COMMIT around them (the replay read and the claim were statements
-    // of their own)
+    // those four, and START TRANSACTION and COMMIT around them: six (the replay read and the claim
+    // were once statements of their own: eight)
     assert.equal(first.statements, 6, first.sent.join('\n'));
     const claims = await ctx.ds.query(`SELECT result FROM processed_mutation WHERE mutation_id = ANY($1::uuid[])`, [run.map((x) => x.id)]);
     assert.deepEqual(claims.map((c: { result: unknown }) => c.result), first.body.results.map(({ status, version }) => ({ status, version })));
@@ -157,7 +157,8 @@ describe('storage', () => {
       `SELECT pg_column_compression(field_meta) AS method, octet_length(field_meta::text) AS length FROM circuit WHERE id = $1`,
       [id],
     );
-    // a demo circuit carries a stamp for each of its fields: well past the 2 kB where PostgreSQL compresses
+    // a demo circuit carries a stamp for each of its fields, enough for PostgreSQL to compress the
+    // row (past about 2 kB); a value it did not compress would have no method
     assert.ok(row.length > 1000, `field_meta of ${row.length} characters`);
     assert.equal(row.method, 'lz4');
   });
